@@ -1,0 +1,89 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { BandBadge, isBandKey } from "@/components/ui/band-badge";
+import { Card, PageHeader, Stat } from "@/components/ui/card";
+import { requirePermission } from "@/lib/auth/session";
+import { getEngine } from "@/lib/fleet/queries";
+import { day, fixed, hours, monthYear } from "@/lib/format";
+
+export const metadata: Metadata = { title: "Main engine" };
+
+export default async function EnginePage({ params }: { params: Promise<{ engineId: string }> }) {
+  const user = await requirePermission("fleet.read");
+  const { engineId } = await params;
+  const engine = await getEngine(user, Number(engineId));
+  if (!engine) notFound();
+  const limit = engine.profile.linerWearLimitMm;
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <>
+            <Link href="/fleet" className="hover:underline">Fleet</Link> /{" "}
+            <Link href={`/vessels/${engine.vessel.id}`} className="hover:underline">{engine.vessel.name}</Link>
+          </>
+        }
+        title={`Main engine ${engine.profile.designation}`}
+      />
+      <Card className="mb-6 grid grid-cols-2 gap-4 p-4 sm:grid-cols-4">
+        <Stat label="Running hours" value={hours(engine.latestHours?.engineHours)} unit="h" hint={engine.latestHours ? `logged ${day(engine.latestHours.loggedOn)}` : "no log yet"} />
+        <Stat label="Bore" value={fixed(engine.profile.boreMm, 0)} unit="mm" />
+        <Stat label="Liner wear limit" value={fixed(limit, 2)} unit="mm" hint="from the engine profile" />
+        <Stat label="Ovality limit" value={fixed(engine.profile.ovalityLimitMm, 2)} unit="mm" />
+      </Card>
+      <h2 className="mb-3 text-lg font-semibold">Units at a glance</h2>
+      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <table className="w-full min-w-[760px] text-sm">
+          <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
+            <tr>
+              <th scope="col" className="px-3 py-2">Unit</th>
+              <th scope="col" className="px-3 py-2">Status</th>
+              <th scope="col" className="px-3 py-2">Liner</th>
+              <th scope="col" className="px-3 py-2 text-right">Liner hours</th>
+              <th scope="col" className="px-3 py-2 text-right">Max wear</th>
+              <th scope="col" className="px-3 py-2 text-right">Ovality</th>
+              <th scope="col" className="px-3 py-2 text-right">Rate</th>
+              <th scope="col" className="px-3 py-2">Wear limit reached</th>
+              <th scope="col" className="px-3 py-2">Last gauged</th>
+            </tr>
+          </thead>
+          <tbody className="divide-y divide-ink-line/70">
+            {engine.units.map((u) => (
+              <tr key={u.id} className="hover:bg-signal-tint/40">
+                <td className="px-3 py-2.5 font-semibold">
+                  <Link href={`/units/${u.id}`} className="text-signal hover:underline">Cyl. {u.cylinderNo}</Link>
+                </td>
+                <td className="px-3 py-2.5">
+                  {u.band && isBandKey(u.band) ? <BandBadge band={u.band} /> : <span className="text-ink-faint">Not analysed</span>}
+                </td>
+                <td className="px-3 py-2.5 font-mono text-xs">{u.linerSerial ?? "–"}</td>
+                <td className="num px-3 py-2.5 text-right">{hours(u.linerHours)} h</td>
+                <td className="num px-3 py-2.5 text-right">
+                  {fixed(u.maxWearMm)} <span className="text-ink-faint">/ {fixed(limit)} mm</span>
+                </td>
+                <td className="num px-3 py-2.5 text-right">{fixed(u.maxOvalityMm)} mm</td>
+                <td className="num px-3 py-2.5 text-right">{fixed(u.wearRate, 3)} <span className="text-ink-faint">mm/1000 h</span></td>
+                <td className="num px-3 py-2.5">
+                  {u.limitOn ? (
+                    <>
+                      {monthYear(u.limitOn)}
+                      {u.limitOnEarliest || u.limitOnLatest ? (
+                        <span className="block text-xs text-ink-faint">
+                          95 %: {monthYear(u.limitOnEarliest)} – {u.limitOnLatest ? monthYear(u.limitOnLatest) : "later"}
+                        </span>
+                      ) : null}
+                    </>
+                  ) : (
+                    <span className="text-ink-faint">{u.band === "unknown" ? "not enough data" : "–"}</span>
+                  )}
+                </td>
+                <td className="num px-3 py-2.5">{day(u.lastInspectedOn)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,19 @@
+import type { Metadata } from "next";
+import { redirect } from "next/navigation";
+import { SignInForm } from "@/components/auth/sign-in-form";
+import { getCurrentUser } from "@/lib/auth/session";
+
+export const metadata: Metadata = { title: "Sign in" };
+
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string }> }) {
+  if (await getCurrentUser()) redirect("/");
+  const { next } = await searchParams;
+  const safeNext = next && next.startsWith("/") && !next.startsWith("//") ? next : "/";
+  return (
+    <div className="w-full max-w-md rounded-xl bg-paper p-6 text-ink shadow-2xl sm:p-8">
+      <h1 className="text-2xl font-semibold">Sign in</h1>
+      <p className="mt-1 text-sm text-ink-soft">Liner and ring wear records for your fleet.</p>
+      <SignInForm next={safeNext} />
+    </div>
+  );
+}

@@ -1,0 +1,39 @@
+import type { Role } from "./roles";
+
+/**
+ * THE permission table. Every page, server action and route handler asks `can()`;
+ * nothing else decides who may do what. Vessel scope (which vessels a person sees)
+ * is the second half of every check and lives in session.ts / scope helpers.
+ */
+export const PERMISSIONS = {
+  "fleet.read": ["admin", "superintendent", "chief_engineer", "engineer"],
+  "inspection.create": ["chief_engineer", "engineer"],
+  "inspection.editDraft": ["chief_engineer", "engineer"],
+  "inspection.submit": ["chief_engineer", "engineer"],
+  "inspection.approve": ["chief_engineer"],
+  "inspection.return": ["chief_engineer"],
+  "inspection.amend": ["chief_engineer"],
+  "photo.upload": ["chief_engineer", "engineer"],
+  "import.create": ["chief_engineer", "engineer"],
+  "hoursLog.write": ["chief_engineer"],
+  "comment.create": ["superintendent", "chief_engineer"],
+  "renewal.plan": ["superintendent"],
+  "spares.manage": ["superintendent"],
+  "data.export": ["superintendent", "chief_engineer"],
+  "admin.users": ["admin"],
+  "admin.fleet": ["admin"],
+  "admin.profiles": ["admin"],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof PERMISSIONS;
+
+/** Whether `role` holds `permission`. Unknown roles hold nothing. */
+export function can(role: Role | null | undefined, permission: Permission): boolean {
+  if (!role) return false;
+  return (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}
+
+/** Admins see every vessel (to manage them); everyone else sees the vessels assigned to them. */
+export function seesAllVessels(role: Role): boolean {
+  return role === "admin";
+}

@@ -1,0 +1,54 @@
+#!/usr/bin/env bash
+# npm test — every test: unit (vitest), integration (vitest against a real MariaDB and
+# the S3/SMTP fakes) and end-to-end (Playwright in Debian's Chromium against a
+# production build). It starts its own MariaDB and fakes on separate loopback ports
+# with throw-away data in .test-data/, and stops them when done.
+source "$(dirname "$0")/lib/common.sh"
+
+export NODE_ENV=production NEXT_TELEMETRY_DISABLED=1 CI="${CI:-}"
+export TEST_DATA_DIR="$ROOT/.test-data"
+export DB_HOST=127.0.0.1 DB_PORT="${TEST_DB_PORT:-3317}" DB_USER=kalibore_test DB_PASSWORD=kalibore-test-pw
+export S3_FAKE_PORT="${TEST_S3_PORT:-4579}" SMTP_FAKE_PORT="${TEST_SMTP_PORT:-2535}"
+export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT" S3_BUCKET=kalibore-test SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_FAKE_PORT"
+export MAIL_FAKE_DIR="$TEST_DATA_DIR/mail" S3_FAKE_DIR="$TEST_DATA_DIR/s3"
+export E2E_PORT="${TEST_WEB_PORT:-3100}"
+export AUTH_RATE_LIMIT_MAX=5 AUTH_RATE_LIMIT_WINDOW_S=60
+RESULTS="$TEST_DATA_DIR/results"
+
+cleanup() {
+  local code=$?
+  trap - EXIT INT TERM
+  stop_started
+  exit "$code"
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+ensure_node_modules
+ensure_mariadb
+ensure_chromium
+
+rm -rf "$TEST_DATA_DIR"; mkdir -p "$RESULTS"
+port_free "$S3_FAKE_PORT" "the test S3 fake"; port_free "$SMTP_FAKE_PORT" "the test SMTP fake"; port_free "$E2E_PORT" "the test web server"
+node --import tsx scripts/fakes.ts &
+STARTED_PIDS+=("$!")
+wait_port "$S3_FAKE_PORT" "the test S3 fake" 20 "$!"
+start_mariadb "$TEST_DATA_DIR/mariadb" "$DB_PORT" kalibore_it "$DB_USER" "$DB_PASSWORD"
+mariadb --no-defaults --socket="$MARIADB_SOCKET" -uroot -e "CREATE DATABASE kalibore_e2e CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'127.0.0.1'; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'localhost'; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'127.0.0.1'; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'localhost';"
+
+status=0
+say "unit tests"
+npx vitest run --project unit --reporter=default --reporter=json --outputFile.json="$RESULTS/unit.json" || status=1
+
+say "integration tests (MariaDB on 127.0.0.1:$DB_PORT, S3 fake on $S3_FAKE_PORT, SMTP fake on $SMTP_FAKE_PORT)"
+DB_NAME=kalibore_it npx vitest run --project integration --reporter=default --reporter=json --outputFile.json="$RESULTS/integration.json" || status=1
+
+say "end-to-end tests: production build, demo data, Chromium"
+export DB_NAME=kalibore_e2e APP_URL="http://localhost:$E2E_PORT"
+NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev/null
+node --conditions=react-server --import tsx scripts/seed.ts --if-empty >/dev/null
+npx next build >"$RESULTS/build.log" 2>&1 || { tail -n 40 "$RESULTS/build.log"; fail "next build failed"; }
+PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" npx playwright test --reporter=list,json || status=1
+
+node scripts/test-summary.mjs "$RESULTS" || status=1
+exit "$status"
