@@ -1,0 +1,246 @@
+import fc from "fast-check";
+import { linearRegression, mean, rSquared, sampleCorrelation, sampleVariance } from "simple-statistics";
+import { describe, expect, test } from "vitest";
+import type { LinearFit, XY } from "@/lib/stats/regression";
+import { fitLine, inversePredict, leastSquaresSlope, predict } from "@/lib/stats/regression";
+import { studentTQuantile } from "@/lib/stats/t-quantile";
+import { anscombe, anscombePublished } from "../data/anscombe";
+import { noInt1, noInt1Certified, norris, norrisCertified } from "../data/nist-strd";
+
+function fitOf(points: readonly XY[], throughOrigin = false): LinearFit {
+  const result = fitLine(points, { throughOrigin });
+  if (result.kind !== "fit") throw new Error(`expected a fit, got ${result.kind}`);
+  return result.fit;
+}
+
+/** Relative error, the measure behind NIST's log relative error (LRE). */
+const rel = (actual: number, certified: number) => Math.abs(actual - certified) / Math.abs(certified);
+
+describe("NIST StRD Norris (certified values, NIST Statistical Reference Datasets)", () => {
+  const fit = fitOf(norris);
+  test.each([
+    ["B0", fit.intercept, norrisCertified.b0],
+    ["sd(B0)", fit.interceptSd!, norrisCertified.b0Sd],
+    ["B1", fit.slope, norrisCertified.b1],
+    ["sd(B1)", fit.slopeSd, norrisCertified.b1Sd],
+    ["residual sd", fit.residualSd, norrisCertified.residualSd],
+    ["R²", fit.rSquared, norrisCertified.rSquared],
+  ])("%s agrees with the certified value to at least 10 significant digits", (_name, actual, certified) => {
+    expect(rel(actual, certified)).toBeLessThan(1e-10);
+  });
+
+  test("36 observations, 34 residual degrees of freedom", () => {
+    expect([fit.n, fit.df]).toEqual([36, 34]);
+  });
+});
+
+describe("NIST StRD NoInt1 through the origin (certified values; R² uncentred as NIST defines for NoInt)", () => {
+  const fit = fitOf(noInt1, true);
+  test.each([
+    ["B1", fit.slope, noInt1Certified.b1],
+    ["sd(B1)", fit.slopeSd, noInt1Certified.b1Sd],
+    ["residual sd", fit.residualSd, noInt1Certified.residualSd],
+    ["R²", fit.rSquared, noInt1Certified.rSquared],
+  ])("%s agrees with the certified value to at least 10 significant digits", (_name, actual, certified) => {
+    expect(rel(actual, certified)).toBeLessThan(1e-10);
+  });
+
+  test("no intercept is estimated", () => {
+    expect(fit.intercept).toBe(0);
+    expect(fit.interceptSd).toBeNull();
+    expect(fit.df).toBe(10);
+  });
+});
+
+describe("Anscombe's quartet (Anscombe 1973: the same summary for all four sets)", () => {
+  test.each(Object.entries(anscombe))("set %s", (_set, points) => {
+    const fit = fitOf(points);
+    const xs = points.map((p) => p.x);
+    const ys = points.map((p) => p.y);
+    expect(mean(xs)).toBe(anscombePublished.meanX);
+    expect(sampleVariance(xs)).toBeCloseTo(anscombePublished.varX, 10);
+    expect(fit.xMean).toBe(anscombePublished.meanX);
+    expect(fit.sxx / (fit.n - 1)).toBeCloseTo(anscombePublished.varX, 10);
+    expect(fit.yMean).toBeCloseTo(anscombePublished.meanY, 2);
+    // The four sets differ in the fourth decimal of r (0.8164 … 0.8165), so r is checked to ±0.001.
+    expect(Math.abs(sampleCorrelation(xs, ys) - anscombePublished.r)).toBeLessThanOrEqual(0.001);
+    expect(Math.abs(Math.sqrt(fit.rSquared) - anscombePublished.r)).toBeLessThanOrEqual(0.001);
+    expect(fit.intercept).toBeCloseTo(anscombePublished.intercept, 2);
+    expect(fit.slope).toBeCloseTo(anscombePublished.slope, 3);
+    expect(fit.rSquared).toBeCloseTo(anscombePublished.rSquared, 2);
+  });
+});
+
+describe("prediction interval ŷ ± t(α/2, n−2)·√(MSE(1 + 1/n + (x − x̄)²/Sxx)) (Penn State STAT 462; Draper & Smith)", () => {
+  const fit = fitOf(anscombe.I);
+
+  test("Anscombe I at x = 10: [derived] ŷ = 8.001, 95 % PI 5.0671 … 10.9349 with t = 2.262157", () => {
+    // Recomputed here from the raw data, independently of the library.
+    const xs = anscombe.I.map((p) => p.x);
+    const ys = anscombe.I.map((p) => p.y);
+    const n = xs.length;
+    const xBar = xs.reduce((a, b) => a + b) / n;
+    const yBar = ys.reduce((a, b) => a + b) / n;
+    const sxx = xs.reduce((s, x) => s + (x - xBar) ** 2, 0);
+    const b1 = xs.reduce((s, x, i) => s + (x - xBar) * (ys[i] - yBar), 0) / sxx;
+    const b0 = yBar - b1 * xBar;
+    const mse = ys.reduce((s, y, i) => s + (y - b0 - b1 * xs[i]) ** 2, 0) / (n - 2);
+    const t = 2.262157; // [src] NIST/SEMATECH t table, ν = 9, p = 0.975
+    const half = t * Math.sqrt(mse * (1 + 1 / n + (10 - xBar) ** 2 / sxx));
+
+    const p = predict(fit, 10)!;
+    expect(p.t).toBeCloseTo(t, 6);
+    expect(p.yHat).toBeCloseTo(b0 + b1 * 10, 12);
+    expect(p.lower).toBeCloseTo(b0 + b1 * 10 - half, 5);
+    expect(p.upper).toBeCloseTo(b0 + b1 * 10 + half, 5);
+    expect(p.yHat).toBeCloseTo(8.001, 3);
+    expect(p.lower).toBeCloseTo(5.0671, 4);
+    expect(p.upper).toBeCloseTo(10.9349, 4);
+  });
+
+  test("the interval is narrowest at x̄ and widens away from it", () => {
+    const widths = [9, 12, 20, 40].map((x) => predict(fit, x)!.halfWidth);
+    expect([...widths].sort((a, b) => a - b)).toEqual(widths);
+  });
+
+  test("through the origin the leverage term is x²/Σx² with n − 1 df [derived]", () => {
+    const f = fitOf(noInt1, true);
+    const p = predict(f, 65)!;
+    const t = studentTQuantile(0.975, 10)!;
+    expect(p.halfWidth).toBeCloseTo(t * f.residualSd * Math.sqrt(1 + (65 * 65) / f.sumX2), 10);
+  });
+
+  test("non-finite x gives null", () => {
+    expect(predict(fit, NaN)).toBeNull();
+  });
+});
+
+describe("inverse prediction by inverting the prediction bands (Draper & Smith, inverse regression, straight-line case)", () => {
+  const fit = fitOf(anscombe.I);
+
+  test.each([6, 8, 10, 12])("Anscombe I, y0 = %d: bounds match the Draper & Smith closed form and lie where the bands cross y0", (y0) => {
+    const inv = inversePredict(fit, y0)!;
+    expect(inv.kind).toBe("bounded");
+    if (inv.kind !== "bounded") return;
+    // Draper & Smith: X_L, X_U = X̂0 + [(X̂0 − X̄)·g ± (t·s/b1)·√((X̂0 − X̄)²/Sxx + (1 − g)(1 + 1/n))] / (1 − g),
+    // with g = t²s²/(b1²·Sxx) and X̂0 = X̄ + (y0 − Ȳ)/b1.
+    const t = studentTQuantile(0.975, fit.df)!;
+    const s = fit.residualSd;
+    const g = (t * t * s * s) / (fit.slope * fit.slope * fit.sxx);
+    const x0 = fit.xMean + (y0 - fit.yMean) / fit.slope;
+    const root = ((t * s) / fit.slope) * Math.sqrt((x0 - fit.xMean) ** 2 / fit.sxx + (1 - g) * (1 + 1 / fit.n));
+    expect(inv.x).toBeCloseTo(x0, 10);
+    expect(inv.lower).toBeCloseTo(x0 + ((x0 - fit.xMean) * g - root) / (1 - g), 9);
+    expect(inv.upper).toBeCloseTo(x0 + ((x0 - fit.xMean) * g + root) / (1 - g), 9);
+    // By definition: the upper band reaches y0 at the lower bound, the lower band at the upper bound.
+    expect(predict(fit, inv.lower)!.upper).toBeCloseTo(y0, 9);
+    expect(predict(fit, inv.upper)!.lower).toBeCloseTo(y0, 9);
+  });
+
+  test("Norris: a tight calibration line gives a tight interval around x̂", () => {
+    const f = fitOf(norris);
+    const inv = inversePredict(f, 500)!;
+    expect(inv.kind).toBe("bounded");
+    if (inv.kind === "bounded") {
+      expect(inv.x).toBeCloseTo((500 - f.intercept) / f.slope, 9);
+      expect(inv.upper - inv.lower).toBeLessThan(4);
+    }
+  });
+
+  test("through the origin, the bounds are where the bands cross y0", () => {
+    const f = fitOf(noInt1, true);
+    const inv = inversePredict(f, 150)!;
+    expect(inv.kind).toBe("bounded");
+    if (inv.kind === "bounded") {
+      expect(predict(f, inv.lower)!.upper).toBeCloseTo(150, 8);
+      expect(predict(f, inv.upper)!.lower).toBeCloseTo(150, 8);
+    }
+  });
+
+  test("a slope not significant at 95 %: the lower band never reaches y0, so the interval is open above", () => {
+    const noisy = fitOf([
+      { x: 1, y: 0 },
+      { x: 2, y: 2 },
+      { x: 3, y: 0.2 },
+      { x: 4, y: 2.2 },
+      { x: 5, y: 1 },
+    ]);
+    expect(noisy.slope).toBeGreaterThan(0);
+    const inv = inversePredict(noisy, 6)!;
+    expect(inv.kind).toBe("open_ended");
+    if (inv.kind === "open_ended") {
+      expect(inv.upper).toBeNull();
+      expect(inv.lower).not.toBeNull();
+      expect(inv.lower!).toBeLessThanOrEqual(inv.x);
+      expect(predict(noisy, inv.lower!)!.upper).toBeCloseTo(6, 8);
+    }
+  });
+
+  test("y0 inside the bands everywhere gives an interval open at both ends", () => {
+    const flat = fitOf([
+      { x: 1, y: 0 },
+      { x: 2, y: 3 },
+      { x: 3, y: 0 },
+      { x: 4, y: 3.1 },
+    ]);
+    const inv = inversePredict(flat, flat.yMean)!;
+    expect(inv).toMatchObject({ kind: "open_ended", lower: null, upper: null });
+  });
+
+  test.each([
+    ["falling", [{ x: 0, y: 2 }, { x: 1, y: 1 }, { x: 2, y: 0.1 }]],
+    ["flat", [{ x: 0, y: 1 }, { x: 1, y: 1 }, { x: 2, y: 1 }]],
+  ])("a %s line is not inverted", (_name, points) => {
+    expect(inversePredict(fitOf(points), 5)).toMatchObject({ kind: "slope_not_positive" });
+  });
+});
+
+describe("typed results instead of NaN", () => {
+  test.each([
+    [[], { kind: "insufficient_data", needed: 3, have: 0 }],
+    [[{ x: 1, y: 1 }, { x: 2, y: 2 }], { kind: "insufficient_data", needed: 3, have: 2 }],
+    [[{ x: 1, y: 1 }, { x: 1, y: 2 }, { x: 1, y: 3 }], { kind: "degenerate", reason: "no_x_spread" }],
+    [[{ x: 1, y: 1 }, { x: 2, y: NaN }, { x: 3, y: 3 }], { kind: "degenerate", reason: "non_finite" }],
+    [[{ x: 1e200, y: 1 }, { x: -1e200, y: 2 }, { x: 3, y: 3 }], { kind: "degenerate", reason: "non_finite" }],
+  ])("fitLine(%j)", (points, expected) => {
+    expect(fitLine(points)).toEqual(expected);
+  });
+
+  test("a perfect line has zero residual sd and R² = 1", () => {
+    const fit = fitOf([{ x: 0, y: 1 }, { x: 1, y: 3 }, { x: 2, y: 5 }]);
+    expect([fit.slope, fit.intercept, fit.residualSd, fit.rSquared]).toEqual([2, 1, 0, 1]);
+    expect(fit.standardizedResiduals).toEqual([0, 0, 0]);
+  });
+
+  test.each([
+    [[{ x: 0, y: 0 }, { x: 2, y: 1 }], 0.5],
+    [[{ x: 5, y: 1 }], null],
+    [[{ x: 5, y: 1 }, { x: 5, y: 2 }], null],
+  ])("leastSquaresSlope(%j) = %s", (points, slope) => {
+    expect(leastSquaresSlope(points)).toBe(slope);
+  });
+});
+
+describe("property: agrees with simple-statistics on random data", () => {
+  const point = fc.record({ x: fc.double({ min: -1e4, max: 1e5, noNaN: true }), y: fc.double({ min: -1e3, max: 1e3, noNaN: true }) });
+  test("slope, intercept and R² match simple-statistics linearRegression and rSquared", () => {
+    fc.assert(
+      fc.property(fc.array(point, { minLength: 3, maxLength: 40 }), (points) => {
+        const result = fitLine(points);
+        const xs = points.map((p) => p.x);
+        const spread = Math.max(...xs) - Math.min(...xs);
+        fc.pre(spread > 1e-3 * Math.max(1, ...xs.map(Math.abs)));
+        expect(result.kind).toBe("fit");
+        if (result.kind !== "fit") return;
+        const pairs = points.map((p) => [p.x, p.y]);
+        const reference = linearRegression(pairs);
+        const scale = Math.max(1, ...points.map((p) => Math.abs(p.y)));
+        expect(Math.abs(result.fit.slope - reference.m) * spread).toBeLessThanOrEqual(1e-7 * scale);
+        expect(Math.abs(result.fit.intercept - reference.b)).toBeLessThanOrEqual(1e-7 * scale * (1 + Math.max(...xs.map(Math.abs)) / spread));
+        const r2 = rSquared(pairs, (x) => reference.b + reference.m * x);
+        if (Number.isFinite(r2)) expect(result.fit.rSquared).toBeCloseTo(r2, 6);
+        expect(Number.isFinite(result.fit.residualSd)).toBe(true);
+      }),
+    );
+  });
+});
