@@ -120,14 +120,17 @@ SQL
 }
 
 load_env_file() {
-  # .env is optional; values already in the environment win.
-  if [ -f .env ]; then
-    while IFS='=' read -r key value; do
-      [[ -z "$key" || "$key" == \#* ]] && continue
-      key="${key// /}"
-      if [ -z "${!key:-}" ]; then export "$key=${value%\"}"; export "$key=${!key#\"}"; fi
-    done < .env
-  fi
+  # .env is optional; values already in the environment win. Trailing "# comments" are dropped.
+  [ -f .env ] || return 0
+  local line key value
+  while IFS= read -r line || [ -n "$line" ]; do
+    line="${line%%#*}"
+    [[ "$line" =~ ^[[:space:]]*([A-Za-z_][A-Za-z0-9_]*)=(.*)$ ]] || continue
+    key="${BASH_REMATCH[1]}"; value="${BASH_REMATCH[2]}"
+    value="$(printf '%s' "$value" | sed -e 's/^[[:space:]]*//' -e 's/[[:space:]]*$//' -e 's/^"\(.*\)"$/\1/')"
+    [ -z "$value" ] && continue
+    [ -z "${!key:-}" ] && export "$key=$value"
+  done < .env
 }
 
 # check_env — validates configuration through the same zod schema the app uses.

@@ -1,5 +1,6 @@
-import { execFileSync } from "node:child_process";
 import knex from "knex";
+import { testDb } from "./db";
+import { migrationSource } from "./migration-source";
 
 /**
  * Integration tests run against a real MariaDB started by scripts/test.sh. This
@@ -7,19 +8,17 @@ import knex from "knex";
  */
 export default async function setup() {
   const name = process.env.DB_NAME ?? "kalibore_it";
-  if (!/_it$|_test$/.test(name)) throw new Error(`Refusing to reset database "${name}": integration tests only use *_it databases.`);
+  if (!/_it$/.test(name)) throw new Error(`Refusing to reset database "${name}": integration tests only use *_it databases.`);
   const host = process.env.DB_HOST ?? "127.0.0.1";
   if (host !== "127.0.0.1" && host !== "localhost") throw new Error(`Refusing a non-local database host ${host}.`);
   const admin = knex({
     client: "mysql2",
-    connection: { host, port: Number(process.env.DB_PORT), user: process.env.DB_USER, password: process.env.DB_PASSWORD },
+    connection: { host, port: Number(process.env.DB_PORT ?? 3317), user: process.env.DB_USER, password: process.env.DB_PASSWORD },
   });
   await admin.raw(`DROP DATABASE IF EXISTS \`${name}\``);
   await admin.raw(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
   await admin.destroy();
-  // Knex loads migration files with a native import, so run it the way `npm start` does.
-  execFileSync("npx", ["knex", "migrate:latest", "--knexfile", "knexfile.ts"], {
-    env: { ...process.env, NODE_OPTIONS: "--import tsx" },
-    stdio: "pipe",
-  });
+  const db = testDb(name);
+  await db.migrate.latest({ migrationSource });
+  await db.destroy();
 }

@@ -1,0 +1,283 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { ProfileChart } from "@/components/charts/profile-chart";
+import { TrendChart } from "@/components/charts/trend-chart";
+import { BandBadge } from "@/components/ui/band-badge";
+import { Card, PageHeader, Stat } from "@/components/ui/card";
+import { ProjectionText } from "@/components/wear/projection-text";
+import { getUnitAnalysis } from "@/lib/analysis/queries";
+import { requirePermission } from "@/lib/auth/session";
+import { day, fixed, hours } from "@/lib/format";
+
+export const metadata: Metadata = { title: "Unit history" };
+
+const STATE_LABELS: Record<string, string> = {
+  draft: "Draft",
+  submitted: "Awaiting approval",
+  returned: "Returned for correction",
+  approved: "Approved",
+  superseded: "Superseded by amendment",
+};
+
+export default async function UnitPage({ params }: { params: Promise<{ unitId: string }> }) {
+  const user = await requirePermission("fleet.read");
+  const { unitId } = await params;
+  const id = Number(unitId);
+  const data = Number.isInteger(id) && id > 0 ? await getUnitAnalysis(user, id) : null;
+  if (!data) notFound();
+  const { context: ctx, summary, profile } = data;
+  const currentLiner = data.liners.find((l) => !l.removedOn) ?? null;
+  const latestSeries = data.series.at(-1) ?? null;
+  const stationLabel = (key: string | null) => profile.stations.find((s) => s.key === key)?.label ?? key ?? "–";
+  const wearProjection = summary.wear.kind === "projected" ? summary.wear : null;
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <>
+            <Link href="/fleet" className="hover:underline">Fleet</Link> /{" "}
+            <Link href={`/vessels/${ctx.vesselId}`} className="hover:underline">{ctx.vesselName}</Link> /{" "}
+            <Link href={`/engines/${ctx.engineId}`} className="hover:underline">Main engine</Link>
+          </>
+        }
+        title={`Cylinder ${ctx.cylinderNo}`}
+      >
+        <BandBadge band={summary.band.band} className="text-base" />
+      </PageHeader>
+
+      {summary.band.reasons.length ? (
+        <ul className="mb-6 space-y-1 text-sm text-ink-soft">
+          {summary.band.reasons.map((r) => (
+            <li key={r}>• {r}</li>
+          ))}
+        </ul>
+      ) : null}
+
+      <Card className="mb-6 grid grid-cols-2 gap-x-4 gap-y-5 p-4 md:grid-cols-3 xl:grid-cols-6">
+        <Stat label="Liner" value={<span className="font-mono text-base">{currentLiner?.serial ?? "–"}</span>} hint={currentLiner ? `fitted ${day(currentLiner.installedOn)}` : undefined} />
+        <Stat label="Liner hours" value={hours(summary.linerHours)} unit="h" hint={summary.lastInspectedOn ? `at last gauging, ${day(summary.lastInspectedOn)}` : "not gauged yet"} />
+        <Stat label="Max wear" value={fixed(summary.maxWearMm)} unit="mm" hint={`limit ${fixed(profile.linerWearLimitMm)} mm · at ${stationLabel(summary.maxWearStation)}`} />
+        <Stat label="Max ovality" value={fixed(summary.maxOvalityMm)} unit="mm" hint={`limit ${fixed(profile.ovalityLimitMm)} mm`} />
+        <Stat
+          label="Wear rate (trend)"
+          value={summary.trend ? fixed(summary.trend.slopeMmPer1000h, 3) : "–"}
+          unit="mm/1000 h"
+          hint={
+            summary.trend
+              ? `± ${fixed(summary.trend.slopeSdMmPer1000h, 3)} · R² ${fixed(summary.trend.rSquared, 3)} · ${summary.trend.n} points`
+              : "needs readings past running-in"
+          }
+        />
+        <Stat label="Last interval" value={fixed(summary.lastIntervalRate, 3)} unit="mm/1000 h" />
+      </Card>
+
+      <section className="mb-6 grid gap-6 lg:grid-cols-2">
+        <Card className="p-4">
+          <h2 className="font-semibold">Wear trend</h2>
+          <p className="mb-2 text-sm text-ink-soft">
+            <ProjectionText what="Wear" projection={summary.wear} limitMm={profile.linerWearLimitMm} />
+          </p>
+          <TrendChart
+            label="Maximum wear"
+            points={data.points.map((p) => ({ linerHours: p.linerHours, valueMm: p.maxWearMm, steady: p.steady, outlier: p.wearOutlier, date: p.date }))}
+            fit={data.fit}
+            limitMm={profile.linerWearLimitMm}
+            projection={wearProjection ? { atLinerHours: wearProjection.atLinerHours, lowerHours: wearProjection.lowerHours, upperHours: wearProjection.upperHours } : null}
+            runningInHours={profile.runningInHours}
+          />
+          <p className="mt-2 text-xs text-ink-faint">
+            Filled dots are fitted by least squares; hollow dots are running-in readings (before {hours(profile.runningInHours)} h), left out of
+            the fit. The shaded band is the 95 % prediction interval; the bar on the limit line is the 95 % interval of the liner hours at which
+            the limit is reached (inverse prediction, Draper &amp; Smith, <i>Applied Regression Analysis</i>).
+          </p>
+        </Card>
+        <Card className="p-4">
+          <h2 className="font-semibold">Liner profile</h2>
+          <p className="mb-2 text-sm text-ink-soft">
+            Wear at each station, larger of {profile.axes[0].label.toLowerCase()} and {profile.axes[1].label.toLowerCase()}, one line per inspection
+            (newest darkest).
+          </p>
+          <ProfileChart
+            limitMm={profile.linerWearLimitMm}
+            series={data.series.map((s) => ({
+              id: s.inspectionId,
+              label: day(s.date),
+              points: profile.stations
+                .map((st) => {
+                  const cells = s.cells.filter((c) => c.stationKey === st.key && c.usable);
+                  return cells.length ? { depthMm: st.depthMm, wearMm: Math.max(...cells.map((c) => c.wearMm)) } : null;
+                })
+                .filter((p): p is { depthMm: number; wearMm: number } => p !== null),
+            }))}
+          />
+          <p className="mt-2 text-xs text-ink-faint">
+            <ProjectionText what="Ovality" projection={summary.ovality} limitMm={profile.ovalityLimitMm} />
+          </p>
+        </Card>
+      </section>
+
+      {latestSeries ? (
+        <section className="mb-6">
+          <h2 className="mb-2 text-lg font-semibold">Latest gauging, {day(latestSeries.date)}</h2>
+          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+            <table className="w-full min-w-[680px] text-sm">
+              <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
+                <tr>
+                  <th className="px-3 py-2" scope="col">Station</th>
+                  <th className="px-3 py-2 text-right" scope="col">Depth</th>
+                  {profile.axes.map((a) => (
+                    <th key={a.key} className="px-3 py-2 text-right" scope="col">
+                      {a.label}: read / at 20 °C / wear
+                    </th>
+                  ))}
+                  <th className="px-3 py-2 text-right" scope="col">Ovality</th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-ink-line/70">
+                {profile.stations.map((st) => {
+                  const ov = latestSeries.ovality.find((o) => o.stationKey === st.key)?.ovalityMm ?? null;
+                  return (
+                    <tr key={st.key}>
+                      <th scope="row" className="px-3 py-2 text-left font-medium">{st.label}</th>
+                      <td className="num px-3 py-2 text-right">{fixed(st.depthMm, 0)} mm</td>
+                      {profile.axes.map((a) => {
+                        const c = latestSeries.cells.find((x) => x.stationKey === st.key && x.axisKey === a.key);
+                        const over = c && c.wearMm >= profile.linerWearLimitMm;
+                        return (
+                          <td key={a.key} className="num px-3 py-2 text-right">
+                            {c ? (
+                              <>
+                                <span className="text-ink-faint">{fixed(c.rawMm, 2)} / {fixed(c.correctedMm, 2)} / </span>
+                                <span className={over ? "font-semibold text-limit" : "font-semibold"}>
+                                  {over ? "⛔ " : ""}
+                                  {fixed(c.wearMm, 2)}
+                                </span>
+                                {!c.usable ? <span className="ml-1 text-xs text-caution">(implausible, not used)</span> : null}
+                              </>
+                            ) : (
+                              <span className="text-ink-faint">not read</span>
+                            )}
+                          </td>
+                        );
+                      })}
+                      <td className="num px-3 py-2 text-right">{ov === null ? "–" : `${fixed(ov, 2)}`}</td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          <p className="mt-1 text-xs text-ink-faint">
+            All figures in mm. {profile.temperatureCorrection ? "Readings are referred to 20 °C (ISO 1) from the recorded gauge and liner temperatures." : "Temperature correction is off for this engine profile."}{" "}
+            Wear is measured from the {profile.wearReference === "nominal" ? `nominal bore of ${fixed(profile.boreMm, 2)} mm` : "liner's as-fitted readings"}.
+          </p>
+        </section>
+      ) : null}
+
+      {data.rings ? (
+        <section className="mb-6">
+          <h2 className="mb-2 text-lg font-semibold">Piston rings at the last overhaul</h2>
+          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+            <table className="w-full min-w-[640px] text-sm">
+              <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
+                <tr>
+                  <th className="px-3 py-2" scope="col">Ring</th>
+                  <th className="px-3 py-2 text-right" scope="col">Closed gap</th>
+                  <th className="px-3 py-2 text-right" scope="col">Gap limit</th>
+                  <th className="px-3 py-2 text-right" scope="col">Groove clearance</th>
+                  <th className="px-3 py-2 text-right" scope="col">Groove limit</th>
+                  <th className="px-3 py-2" scope="col">Verdict</th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-ink-line/70">
+                {data.rings.rings.map((r) => {
+                  const spec = profile.rings.find((s) => s.position === r.position);
+                  return (
+                    <tr key={r.position}>
+                      <th scope="row" className="px-3 py-2 text-left font-medium">{r.position === 1 ? "1 (top)" : r.position}</th>
+                      <td className="num px-3 py-2 text-right">{r.gap ? `${fixed(r.gap.valueMm)} mm` : "–"}</td>
+                      <td className="num px-3 py-2 text-right text-ink-faint">{spec ? `${fixed(spec.gapLimitMm)} mm` : "–"}</td>
+                      <td className="num px-3 py-2 text-right">{r.groove ? `${fixed(r.groove.valueMm)} mm` : "–"}</td>
+                      <td className="num px-3 py-2 text-right text-ink-faint">{spec ? `${fixed(spec.grooveLimitMm)} mm` : "–"}</td>
+                      <td className="px-3 py-2">
+                        {r.overLimit ? (
+                          <span className="font-semibold text-limit">⛔ Over limit — renew</span>
+                        ) : r.renew ? (
+                          <span className="font-semibold text-caution">▲ Renew at this overhaul</span>
+                        ) : (
+                          <span className="text-steady">✓ Runs on</span>
+                        )}
+                        {r.reasons.length ? <span className="block text-xs text-ink-faint">{r.reasons.join(" ")}</span> : null}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+        </section>
+      ) : null}
+
+      <section className="grid gap-6 lg:grid-cols-3">
+        <div className="lg:col-span-2">
+          <h2 className="mb-2 text-lg font-semibold">Overhauls</h2>
+          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+            <table className="w-full min-w-[560px] text-sm">
+              <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
+                <tr>
+                  <th className="px-3 py-2" scope="col">Date</th>
+                  <th className="px-3 py-2 text-right" scope="col">Engine hours</th>
+                  <th className="px-3 py-2 text-right" scope="col">Liner hours</th>
+                  <th className="px-3 py-2 text-right" scope="col">Max wear</th>
+                  <th className="px-3 py-2" scope="col">State</th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-ink-line/70">
+                {data.inspections.map((i) => {
+                  const p = data.points.find((pt) => pt.inspectionId === String(i.id));
+                  return (
+                    <tr key={i.id}>
+                      <td className="num px-3 py-2">{day(i.inspectedOn)}</td>
+                      <td className="num px-3 py-2 text-right">{hours(i.engineHours)} h</td>
+                      <td className="num px-3 py-2 text-right">{hours(i.linerHours)} h</td>
+                      <td className="num px-3 py-2 text-right">{p ? `${fixed(p.maxWearMm)} mm` : "–"}</td>
+                      <td className="px-3 py-2">
+                        {STATE_LABELS[i.state] ?? i.state}
+                        {i.version > 1 ? <span className="text-ink-faint"> · v{i.version}</span> : null}
+                      </td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+        </div>
+        <div>
+          <h2 className="mb-2 text-lg font-semibold">Liners in this unit</h2>
+          <ul className="space-y-2">
+            {data.liners.map((l) => (
+              <li key={l.id}>
+                <Card className="p-3 text-sm">
+                  <div className="font-mono">{l.serial}</div>
+                  <div className="num text-ink-soft">
+                    fitted {day(l.installedOn)} at {hours(l.installedEngineHours)} engine h
+                  </div>
+                  {l.removedOn ? (
+                    <div className="num text-ink-soft">
+                      removed {day(l.removedOn)}
+                      {l.removalReason ? ` — ${l.removalReason}` : ""}
+                    </div>
+                  ) : (
+                    <div className="font-medium text-steady">in service</div>
+                  )}
+                </Card>
+              </li>
+            ))}
+          </ul>
+        </div>
+      </section>
+    </>
+  );
+}

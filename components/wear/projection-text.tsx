@@ -1,0 +1,38 @@
+import type { ProjectionSummary } from "@/lib/analysis/compute";
+import { day, fixed, hours, monthYear } from "@/lib/format";
+
+/** One plain sentence for a projection, honest about what is not known. */
+export function ProjectionText({ what, projection: p, limitMm }: { what: string; projection: ProjectionSummary; limitMm: number }) {
+  switch (p.kind) {
+    case "insufficient_data":
+      return (
+        <>
+          {what}: not enough data to project — {p.have} of the {p.needed} readings past running-in that a projection needs.
+        </>
+      );
+    case "not_wearing":
+      return <>{what}: no rising trend ({fixed(p.slopeMmPer1000h, 3)} mm/1000 h), so no date to the limit.</>;
+    case "already_over":
+      return (
+        <strong className="text-limit">
+          ⛔ {what} {fixed(p.valueMm)} mm has reached the {fixed(limitMm)} mm limit.
+        </strong>
+      );
+    case "projected": {
+      const d = p.dates;
+      return (
+        <>
+          {what} reaches the {fixed(limitMm)} mm limit at about <span className="num font-semibold text-ink">{hours(p.atLinerHours)} liner h</span>
+          {d?.kind === "dated" ? (
+            <>
+              , around <span className="num font-semibold text-ink">{monthYear(d.date)}</span> (95 %: {d.lower ? day(d.lower) : "open"} – {d.upper ? day(d.upper) : "open"})
+            </>
+          ) : (
+            <> (no date: the running-hours log is too short to give a rate)</>
+          )}
+          .
+        </>
+      );
+    }
+  }
+}

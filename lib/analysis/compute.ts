@@ -1,0 +1,122 @@
+import { analyseRings, type RingAnalysis, type RingInspection, type RingPositionSpec } from "@/lib/rings/rings";
+import { runningHoursPerDay, projectDate, type DateProjection, type RunningHoursEntry, type RunningRate } from "@/lib/wear/calendar";
+import { unitBand, type UnitBand } from "@/lib/wear/bands";
+import { analyseLiner, type LinerAnalysis, type Projection } from "@/lib/wear/liner";
+import type { Inspection, LinerReading, WearProfile } from "@/lib/wear/types";
+
+/** Everything the analysis of one unit needs, as loaded from the database. */
+export type UnitInput = {
+  unitId: number;
+  linerId: number | null;
+  profile: WearProfile;
+  /** Approved inspections of the current liner. */
+  inspections: Inspection[];
+  /** Ring readings of those inspections. */
+  ringInspections: RingInspection[];
+  /** As-fitted readings (the liner's first inspection) when the profile measures wear from them. */
+  asFittedReadings?: LinerReading[];
+  hoursLog: RunningHoursEntry[];
+  nextOverhaulEngineHours: number | null;
+};
+
+export type ProjectionSummary = Projection & { dates: DateProjection | null };
+
+/** The per-unit result the fleet screens read; stored as JSON in unit_analysis.summary. */
+export type UnitSummary = {
+  band: UnitBand;
+  linerHours: number | null;
+  lastInspectedOn: string | null;
+  lastEngineHours: number | null;
+  maxWearMm: number | null;
+  maxWearStation: string | null;
+  maxOvalityMm: number | null;
+  lastIntervalRate: number | null;
+  trend: { slopeMmPer1000h: number; slopeSdMmPer1000h: number; rSquared: number; residualSdMm: number; n: number } | null;
+  wear: ProjectionSummary;
+  ovality: ProjectionSummary;
+  runningRate: RunningRate;
+  rings: { position: number; renew: boolean; overLimit: boolean; gapMm: number | null; grooveMm: number | null; reasons: string[] }[];
+  issues: string[];
+};
+
+export type UnitAnalysis = { summary: UnitSummary; liner: LinerAnalysis; rings: RingAnalysis | null };
+
+function withDates(p: Projection, latest: { linerHours: number; date: string } | null, rate: RunningRate): ProjectionSummary {
+  if (p.kind !== "projected" || !latest) return { ...p, dates: null };
+  return {
+    ...p,
+    dates: projectDate({ atLinerHours: p.atLinerHours, lowerHours: p.lowerHours, upperHours: p.upperHours }, latest, rate),
+  };
+}
+
+/**
+ * Runs the pure wear and ring computations for one unit and condenses them to what the
+ * screens and the fleet outlook need. No I/O: the caller loads and stores.
+ */
+export function computeUnitAnalysis(input: UnitInput): UnitAnalysis {
+  const liner = analyseLiner(input.profile, input.inspections, { asFittedReadings: input.asFittedReadings });
+  const latest = liner.latest;
+  const rate = runningHoursPerDay(input.hoursLog);
+  const ringCurrent = latestRingInspection(input.ringInspections);
+  const hoursToNext =
+    input.nextOverhaulEngineHours !== null && latest ? input.nextOverhaulEngineHours - latest.engineHours : null;
+  const rings = ringCurrent
+    ? analyseRings(input.profile.rings as RingPositionSpec[], ringCurrent, input.ringInspections, { hoursToNextOverhaul: hoursToNext })
+    : null;
+  const band = unitBand({
+    profile: input.profile,
+    liner,
+    rings,
+    nextOverhaul: input.nextOverhaulEngineHours !== null ? { engineHours: input.nextOverhaulEngineHours } : null,
+  });
+  const ref = latest ? { linerHours: latest.linerHours, date: latest.date } : null;
+  const trend = liner.wear.trend;
+  const summary: UnitSummary = {
+    band,
+    linerHours: latest?.linerHours ?? null,
+    lastInspectedOn: latest?.date ?? null,
+    lastEngineHours: latest?.engineHours ?? null,
+    maxWearMm: latest?.maxWearMm ?? null,
+    maxWearStation: latest?.maxWearAt?.stationKey ?? null,
+    maxOvalityMm: latest?.maxOvalityMm ?? null,
+    lastIntervalRate: liner.lastIntervalRate?.mmPer1000h ?? null,
+    trend: trend
+      ? {
+          slopeMmPer1000h: trend.slopeMmPer1000h,
+          slopeSdMmPer1000h: trend.slopeSdMmPer1000h,
+          rSquared: trend.rSquared,
+          residualSdMm: trend.residualSdMm,
+          n: trend.n,
+        }
+      : null,
+    wear: withDates(liner.wear.projection, ref, rate),
+    ovality: withDates(liner.ovality.projection, ref, rate),
+    runningRate: rate,
+    rings: (rings?.rings ?? []).map((r) => ({
+      position: r.position,
+      renew: r.renew,
+      overLimit: r.overLimit,
+      gapMm: r.gap?.valueMm ?? null,
+      grooveMm: r.groove?.valueMm ?? null,
+      reasons: r.reasons,
+    })),
+    issues: liner.issues.map((i) => i.message),
+  };
+  return { summary, liner, rings };
+}
+
+function latestRingInspection(list: RingInspection[]): RingInspection | null {
+  let best: RingInspection | null = null;
+  for (const r of list) if (r.readings.length && (!best || r.engineHours > best.engineHours)) best = r;
+  return best;
+}
+
+/** The earliest date among the wear and ovality projections, with its interval. */
+export function earliestLimit(summary: UnitSummary): { on: string; earliest: string | null; latest: string | null } | null {
+  const candidates = [summary.wear, summary.ovality]
+    .map((p) => p.dates)
+    .filter((d): d is Extract<DateProjection, { kind: "dated" }> => d?.kind === "dated");
+  if (!candidates.length) return null;
+  candidates.sort((a, b) => a.date.localeCompare(b.date));
+  return { on: candidates[0].date, earliest: candidates[0].lower, latest: candidates[0].upper };
+}

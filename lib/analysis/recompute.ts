@@ -1,0 +1,85 @@
+import type { Knex } from "knex";
+import { computeUnitAnalysis, earliestLimit, type UnitInput } from "./compute";
+import { loadProfiles, loadUnitInputs, type ProfileRow } from "./load";
+
+/*
+ * Keeps `unit_analysis` current. Every mutation that changes an approved inspection, a
+ * liner, a profile or the running-hours log calls `recomputeUnits` in its transaction,
+ * so the fleet screens read one small row per unit instead of recomputing.
+ */
+
+function toRow(input: UnitInput) {
+  const { summary } = computeUnitAnalysis(input);
+  const limit = earliestLimit(summary);
+  const wearAt = summary.wear.kind === "projected" ? summary.wear.atLinerHours : null;
+  return {
+    unit_id: input.unitId,
+    liner_id: input.linerId,
+    band: summary.band.band,
+    max_wear_mm: round(summary.maxWearMm, 3),
+    max_ovality_mm: round(summary.maxOvalityMm, 3),
+    wear_rate_mm_per_1000h: summary.trend?.slopeMmPer1000h ?? summary.lastIntervalRate ?? null,
+    liner_hours: round(summary.linerHours, 1),
+    limit_at_liner_hours: wearAt !== null && Math.abs(wearAt) < 1e8 ? round(wearAt, 1) : null,
+    limit_on: limit?.on ?? null,
+    limit_on_earliest: limit?.earliest ?? null,
+    limit_on_latest: limit?.latest ?? null,
+    last_inspected_on: summary.lastInspectedOn,
+    summary: JSON.stringify(summary),
+    computed_at: new Date(),
+  };
+}
+
+function round(v: number | null, dp: number): number | null {
+  if (v === null || !Number.isFinite(v)) return null;
+  const f = 10 ** dp;
+  return Math.round(v * f) / f;
+}
+
+async function upsert(db: Knex | Knex.Transaction, rows: ReturnType<typeof toRow>[]) {
+  for (let i = 0; i < rows.length; i += 500) {
+    const chunk = rows.slice(i, i + 500);
+    await db("unit_analysis")
+      .insert(chunk)
+      .onConflict("unit_id")
+      .merge([
+        "liner_id",
+        "band",
+        "max_wear_mm",
+        "max_ovality_mm",
+        "wear_rate_mm_per_1000h",
+        "liner_hours",
+        "limit_at_liner_hours",
+        "limit_on",
+        "limit_on_earliest",
+        "limit_on_latest",
+        "last_inspected_on",
+        "summary",
+        "computed_at",
+      ]);
+  }
+}
+
+/** Recomputes and stores the analysis of the given units (or all units of the given engines). */
+export async function recomputeUnits(db: Knex | Knex.Transaction, filter: { unitIds?: number[]; engineIds?: number[] }): Promise<number> {
+  const { units } = await loadUnitInputs(db, filter);
+  await upsert(db, units.map(toRow));
+  return units.length;
+}
+
+/**
+ * Recomputes every unit of the fleet, engine batch by engine batch, so memory stays
+ * bounded on a large fleet. Returns the number of units.
+ */
+export async function recomputeAllUnits(db: Knex, options: { enginesPerBatch?: number } = {}): Promise<number> {
+  const batch = options.enginesPerBatch ?? 40;
+  const profiles: Map<number, ProfileRow> = await loadProfiles(db);
+  const engineIds = (await db("main_engines").orderBy("id").select("id")).map((r) => r.id as number);
+  let n = 0;
+  for (let i = 0; i < engineIds.length; i += batch) {
+    const { units } = await loadUnitInputs(db, { engineIds: engineIds.slice(i, i + batch) }, profiles);
+    await upsert(db, units.map(toRow));
+    n += units.length;
+  }
+  return n;
+}

@@ -1,0 +1,14 @@
+#!/usr/bin/env bash
+# npm run bench — speed and memory targets, measured on a fleet 50× the demo in a
+# private MariaDB (127.0.0.1:3327, data in .bench-data/). Not a test: it prints numbers
+# beside their targets. The fleet is generated once and kept between runs.
+source "$(dirname "$0")/lib/common.sh"
+export NODE_ENV=production DB_HOST=127.0.0.1 DB_PORT="${BENCH_DB_PORT:-3327}" DB_NAME=kalibore_bench DB_USER=kalibore_bench DB_PASSWORD=kalibore-bench-pw
+trap 'stop_started' EXIT
+trap 'exit 130' INT TERM
+ensure_node_modules
+ensure_mariadb
+start_mariadb "$ROOT/.bench-data/mariadb" "$DB_PORT" "$DB_NAME" "$DB_USER" "$DB_PASSWORD"
+NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev/null
+node --conditions=react-server --import tsx scripts/seed.ts --if-empty --scale "${BENCH_SCALE:-50}" --no-recompute
+node --conditions=react-server --expose-gc --import tsx scripts/bench.ts

@@ -1,0 +1,87 @@
+/**
+ * Benchmarks on the 50× fleet (run through scripts/bench.sh):
+ *  (a) recomputing every unit's analysis from raw readings, beside a baseline that only
+ *      reads the same rows — target: within 1.5× of the bare read;
+ *  (b) the whole-fleet summary the screens read (stored per-unit results) — target: under
+ *      100 ms for every unit of the fleet.
+ */
+import knex from "knex";
+import config from "../knexfile";
+import { loadProfiles, loadUnitInputs } from "../lib/analysis/load";
+import { recomputeAllUnits } from "../lib/analysis/recompute";
+
+const db = knex({ ...config, pool: { min: 1, max: 4 } });
+
+async function time<T>(label: string, fn: () => Promise<T>): Promise<{ ms: number; value: T }> {
+  (globalThis as { gc?: () => void }).gc?.();
+  const t0 = performance.now();
+  const value = await fn();
+  const ms = performance.now() - t0;
+  return { ms, value };
+}
+
+function median(xs: number[]) {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+const counts = {
+  vessels: Number((await db("vessels").count({ n: "*" }))[0].n),
+  units: Number((await db("cylinder_units").count({ n: "*" }))[0].n),
+  inspections: Number((await db("inspections").count({ n: "*" }))[0].n),
+  readings: Number((await db("liner_readings").count({ n: "*" }))[0].n),
+};
+console.log(`fleet: ${counts.vessels} vessels, ${counts.units} units, ${counts.inspections} inspections, ${counts.readings} liner readings`);
+
+const engineIds = (await db("main_engines").orderBy("id").select("id")).map((r) => r.id as number);
+const BATCH = 40;
+
+async function bareRead() {
+  const profiles = await loadProfiles(db);
+  let units = 0;
+  for (let i = 0; i < engineIds.length; i += BATCH) {
+    units += (await loadUnitInputs(db, { engineIds: engineIds.slice(i, i + BATCH) }, profiles)).units.length;
+  }
+  return units;
+}
+
+// Warm the buffer pool and the JIT once, then take the median of three runs of each.
+await bareRead();
+await recomputeAllUnits(db);
+const reads: number[] = [];
+const full: number[] = [];
+let peakHeap = 0;
+for (let i = 0; i < 3; i++) {
+  reads.push((await time("read", bareRead)).ms);
+  const r = await time("recompute", () => recomputeAllUnits(db));
+  full.push(r.ms);
+  peakHeap = Math.max(peakHeap, process.memoryUsage().heapUsed);
+}
+const readMs = median(reads);
+const fullMs = median(full);
+const ratio = fullMs / readMs;
+
+// (b) the fleet summary: every unit's stored result, as the fleet and outlook screens read it.
+const summaryQuery = () =>
+  db("unit_analysis as a")
+    .join("cylinder_units as u", "u.id", "a.unit_id")
+    .join("main_engines as e", "e.id", "u.engine_id")
+    .join("vessels as v", "v.id", "e.vessel_id")
+    .select("v.id as vesselId", "v.name", "u.id", "u.cylinder_no", "a.band", "a.max_wear_mm", "a.wear_rate_mm_per_1000h", "a.limit_on", "a.limit_on_earliest", "a.limit_on_latest");
+await summaryQuery();
+const sums: number[] = [];
+let rows = 0;
+for (let i = 0; i < 7; i++) {
+  const r = await time("summary", summaryQuery);
+  sums.push(r.ms);
+  rows = r.value.length;
+}
+const summaryMs = median(sums);
+
+const ok = (b: boolean) => (b ? "PASS" : "MISS");
+console.log("");
+console.log(`(a) bare read of every unit's rows     ${readMs.toFixed(0).padStart(7)} ms (median of 3)`);
+console.log(`    full recompute + store             ${fullMs.toFixed(0).padStart(7)} ms   ratio ${ratio.toFixed(2)}×   target ≤ 1.50×   ${ok(ratio <= 1.5)}`);
+console.log(`    peak JS heap during recompute      ${(peakHeap / 1048576).toFixed(0).padStart(7)} MB`);
+console.log(`(b) whole-fleet summary (${rows} units)  ${summaryMs.toFixed(1).padStart(7)} ms (median of 7)   target < 100 ms   ${ok(summaryMs < 100)}`);
+await db.destroy();
