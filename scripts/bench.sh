@@ -10,5 +10,5 @@ ensure_node_modules
 ensure_mariadb
 start_mariadb "$ROOT/.bench-data/mariadb" "$DB_PORT" "$DB_NAME" "$DB_USER" "$DB_PASSWORD"
 NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev/null
-node --conditions=react-server --import tsx scripts/seed.ts --if-empty --scale "${BENCH_SCALE:-50}" --no-recompute
+node --conditions=react-server --import tsx scripts/seed.ts --if-empty --scale "${BENCH_SCALE:-200}" --no-recompute
 node --conditions=react-server --expose-gc --import tsx scripts/bench.ts
