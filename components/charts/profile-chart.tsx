@@ -1,9 +1,9 @@
 "use client";
 
+import { useWidth } from "./use-width";
 import { AxisLeft, AxisTop } from "@visx/axis";
 import { GridColumns } from "@visx/grid";
 import { Group } from "@visx/group";
-import { ParentSize } from "@visx/responsive";
 import { scaleLinear } from "@visx/scale";
 import { Line, LinePath } from "@visx/shape";
 
@@ -20,11 +20,10 @@ const shade = (i: number, n: number) => (i === n - 1 ? "#111720" : `rgba(10, 92,
  * stands), the larger of the two directions, one line per inspection, with the limit.
  */
 export function ProfileChart({ series, limitMm }: { series: ProfileSeries[]; limitMm: number }) {
+  const [ref, width] = useWidth<HTMLDivElement>();
   return (
-    <div className="h-80 w-full" role="img" aria-label="Liner wear against depth from the liner top, one line per inspection, with the wear limit">
-      <ParentSize debounceTime={50}>
-        {({ width, height }) => (width > 0 ? <Chart series={series} limitMm={limitMm} width={width} height={height} /> : null)}
-      </ParentSize>
+    <div ref={ref} className="h-80 w-full" role="img" aria-label="Liner wear against depth from the liner top, one line per inspection, with the wear limit">
+      {width > 0 ? <Chart series={series} limitMm={limitMm} width={width} height={320} /> : null}
     </div>
   );
 }

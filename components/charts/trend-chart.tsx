@@ -1,9 +1,9 @@
 "use client";
 
+import { useWidth } from "./use-width";
 import { AxisBottom, AxisLeft } from "@visx/axis";
 import { GridRows } from "@visx/grid";
 import { Group } from "@visx/group";
-import { ParentSize } from "@visx/responsive";
 import { scaleLinear } from "@visx/scale";
 import { Area, Line, LinePath } from "@visx/shape";
 import { predict, type LinearFit } from "@/lib/stats/regression";
@@ -31,9 +31,10 @@ const LIMIT = "#a3161b";
  * in words. Running-in readings are drawn hollow because the fit leaves them out.
  */
 export function TrendChart(props: Props) {
+  const [ref, width] = useWidth<HTMLDivElement>();
   return (
-    <div className="h-72 w-full sm:h-80" role="img" aria-label={`${props.label} against liner hours, with the regression line, its 95 % prediction band and the limit`}>
-      <ParentSize debounceTime={50}>{({ width, height }) => (width > 0 ? <Chart {...props} width={width} height={height} /> : null)}</ParentSize>
+    <div ref={ref} className="h-72 w-full sm:h-80" role="img" aria-label={`${props.label} against liner hours, with the regression line, its 95 % prediction band and the limit`}>
+      {width > 0 ? <Chart {...props} width={width} height={width < 500 ? 288 : 320} /> : null}
     </div>
   );
 }

@@ -1,6 +1,12 @@
 import type { ProjectionSummary } from "@/lib/analysis/compute";
 import { day, fixed, hours, monthYear } from "@/lib/format";
 
+/**
+ * Liner lives of up to about 90 000 h are quoted for modern engines (makers' published
+ * guidelines); a projection past twice that says only that the limit is not in sight.
+ */
+const BEYOND_SERVICE_LIFE_H = 180_000;
+
 /** One plain sentence for a projection, honest about what is not known. */
 export function ProjectionText({ what, projection: p, limitMm }: { what: string; projection: ProjectionSummary; limitMm: number }) {
   switch (p.kind) {
@@ -20,6 +26,14 @@ export function ProjectionText({ what, projection: p, limitMm }: { what: string;
       );
     case "projected": {
       const d = p.dates;
+      if (p.atLinerHours > BEYOND_SERVICE_LIFE_H) {
+        return (
+          <>
+            {what}: at the present rate the {fixed(limitMm)} mm limit lies beyond {hours(BEYOND_SERVICE_LIFE_H)} liner hours, past any liner&apos;s
+            service life.
+          </>
+        );
+      }
       return (
         <>
           {what} reaches the {fixed(limitMm)} mm limit at about <span className="num font-semibold text-ink">{hours(p.atLinerHours)} liner h</span>
