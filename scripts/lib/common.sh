@@ -22,7 +22,8 @@ apt_install() {
 ensure_node_modules() {
   if [ ! -d node_modules ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
     say "installing npm packages from package-lock.json"
-    npm ci --no-audit --no-fund
+    # Dev dependencies too: the build (TypeScript, Tailwind) and the tests need them.
+    NODE_ENV=development npm ci --include=dev --no-audit --no-fund
   fi
 }
 

@@ -4,9 +4,11 @@ import { notFound } from "next/navigation";
 import { ProfileChart } from "@/components/charts/profile-chart";
 import { TrendChart } from "@/components/charts/trend-chart";
 import { BandBadge } from "@/components/ui/band-badge";
+import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
 import { getUnitAnalysis } from "@/lib/analysis/queries";
+import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
 import { day, fixed, hours } from "@/lib/format";
 
@@ -45,6 +47,9 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
         title={`Cylinder ${ctx.cylinderNo}`}
       >
         <BandBadge band={summary.band.band} className="text-base" />
+        {can(user.role, "inspection.create") ? (
+          <Link href={`/inspections/new?unit=${ctx.id}`} className={buttonClass("primary", "lg")}>New inspection</Link>
+        ) : null}
       </PageHeader>
 
       {summary.band.reasons.length ? (
@@ -73,7 +78,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
         <Stat label="Last interval" value={fixed(summary.lastIntervalRate, 3)} unit="mm/1000 h" />
       </Card>
 
-      <section className="mb-6 grid gap-6 lg:grid-cols-2">
+      <section className="mb-6 grid gap-6 lg:grid-cols-2 [&>*]:min-w-0">
         <Card className="p-4">
           <h2 className="font-semibold">Wear trend</h2>
           <p className="mb-2 text-sm text-ink-soft">
@@ -221,7 +226,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
       ) : null}
 
       <section className="grid gap-6 lg:grid-cols-3">
-        <div className="lg:col-span-2">
+        <div className="min-w-0 lg:col-span-2">
           <h2 className="mb-2 text-lg font-semibold">Overhauls</h2>
           <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
             <table className="w-full min-w-[560px] text-sm">
@@ -239,7 +244,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
                   const p = data.points.find((pt) => pt.inspectionId === String(i.id));
                   return (
                     <tr key={i.id}>
-                      <td className="num px-3 py-2">{day(i.inspectedOn)}</td>
+                      <td className="num px-3 py-2"><Link href={`/inspections/${i.id}`} className="font-medium text-signal hover:underline">{day(i.inspectedOn)}</Link></td>
                       <td className="num px-3 py-2 text-right">{hours(i.engineHours)} h</td>
                       <td className="num px-3 py-2 text-right">{hours(i.linerHours)} h</td>
                       <td className="num px-3 py-2 text-right">{p ? `${fixed(p.maxWearMm)} mm` : "–"}</td>
