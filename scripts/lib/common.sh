@@ -7,6 +7,8 @@ set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)"
 cd "$ROOT"
 STARTED_PIDS=()
+# The AWS SDK is pinned to a release that supports Node 20; its notice about later releases is noise here.
+export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED=true
 
 say() { printf '\033[1;36m[kalibore]\033[0m %s\n' "$*"; }
 fail() { printf '\033[1;31m[kalibore] %s\033[0m\n' "$*" >&2; exit 1; }
