@@ -33,7 +33,37 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
         <Stat label="Ovality limit" value={fixed(engine.profile.ovalityLimitMm, 2)} unit="mm" />
       </Card>
       <h2 className="mb-3 text-lg font-semibold">Units at a glance</h2>
-      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+      <ul className="space-y-3 md:hidden" aria-label="Units">
+        {engine.units.map((u) => (
+          <li key={u.id}>
+            <Link href={`/units/${u.id}`} className="block rounded-lg border border-ink-line bg-paper-raised p-4 active:bg-signal-tint/40">
+              <div className="flex items-center justify-between gap-3">
+                <span className="text-lg font-semibold text-signal">Cylinder {u.cylinderNo}</span>
+                {u.band && isBandKey(u.band) ? <BandBadge band={u.band} /> : <span className="text-ink-faint">Not analysed</span>}
+              </div>
+              <dl className="mt-3 grid grid-cols-2 gap-x-4 gap-y-2 text-sm">
+                <div>
+                  <dt className="text-xs text-ink-faint">Max wear</dt>
+                  <dd className="num font-semibold">{fixed(u.maxWearMm)} <span className="font-normal text-ink-faint">/ {fixed(limit)} mm</span></dd>
+                </div>
+                <div>
+                  <dt className="text-xs text-ink-faint">Wear rate</dt>
+                  <dd className="num">{fixed(u.wearRate, 3)} <span className="text-ink-faint">mm/1000 h</span></dd>
+                </div>
+                <div>
+                  <dt className="text-xs text-ink-faint">Wear limit reached</dt>
+                  <dd className="num">{u.limitOn ? monthYear(u.limitOn) : u.band === "unknown" ? "not enough data" : "–"}</dd>
+                </div>
+                <div>
+                  <dt className="text-xs text-ink-faint">Liner hours</dt>
+                  <dd className="num">{hours(u.linerHours)} h</dd>
+                </div>
+              </dl>
+            </Link>
+          </li>
+        ))}
+      </ul>
+      <div className="hidden overflow-x-auto rounded-lg border border-ink-line bg-paper-raised md:block">
         <table className="w-full min-w-[760px] text-sm">
           <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
             <tr>
@@ -51,13 +81,13 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
           <tbody className="divide-y divide-ink-line/70">
             {engine.units.map((u) => (
               <tr key={u.id} className="hover:bg-signal-tint/40">
-                <td className="px-3 py-2.5 font-semibold">
+                <td className="whitespace-nowrap px-3 py-2.5 font-semibold">
                   <Link href={`/units/${u.id}`} className="text-signal hover:underline">Cyl. {u.cylinderNo}</Link>
                 </td>
                 <td className="px-3 py-2.5">
                   {u.band && isBandKey(u.band) ? <BandBadge band={u.band} /> : <span className="text-ink-faint">Not analysed</span>}
                 </td>
-                <td className="px-3 py-2.5 font-mono text-xs">{u.linerSerial ?? "–"}</td>
+                <td className="whitespace-nowrap px-3 py-2.5 font-mono text-xs">{u.linerSerial ?? "–"}</td>
                 <td className="num px-3 py-2.5 text-right">{hours(u.linerHours)} h</td>
                 <td className="num px-3 py-2.5 text-right">
                   {fixed(u.maxWearMm)} <span className="text-ink-faint">/ {fixed(limit)} mm</span>
