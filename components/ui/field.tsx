@@ -20,3 +20,22 @@ export function FieldError({ id, messages }: { id?: string; messages?: string[] 
     </p>
   );
 }
+
+export const selectClass =
+  "block w-full min-h-11 rounded-md border border-ink-line bg-paper-raised px-3 text-base text-ink focus:border-signal aria-[invalid=true]:border-limit";
+
+export function Select({ className, ...props }: React.SelectHTMLAttributes<HTMLSelectElement>) {
+  return <select className={cn(selectClass, className)} {...props} />;
+}
+
+export function Textarea({ className, ...props }: React.TextareaHTMLAttributes<HTMLTextAreaElement>) {
+  return <textarea className={cn(inputClass, "min-h-20 py-2", className)} {...props} />;
+}
+
+export function Hint({ id, children }: { id?: string; children: React.ReactNode }) {
+  return (
+    <p id={id} className="mt-1 text-xs text-ink-faint">
+      {children}
+    </p>
+  );
+}

@@ -1,3 +1,4 @@
+import { BandIcon } from "@/components/ui/band-badge";
 import type { ProjectionSummary } from "@/lib/analysis/compute";
 import { day, fixed, hours, monthYear } from "@/lib/format";
 
@@ -20,8 +21,8 @@ export function ProjectionText({ what, projection: p, limitMm }: { what: string;
       return <>{what}: no rising trend ({fixed(p.slopeMmPer1000h, 3)} mm/1000 h), so no date to the limit.</>;
     case "already_over":
       return (
-        <strong className="text-limit">
-          ⛔ {what} {fixed(p.valueMm)} mm has reached the {fixed(limitMm)} mm limit.
+        <strong className="inline-flex items-center gap-1 text-limit">
+          <BandIcon band="over_limit" /> {what} {fixed(p.valueMm)} mm has reached the {fixed(limitMm)} mm limit.
         </strong>
       );
     case "projected": {

@@ -5,7 +5,13 @@ import { admin } from "better-auth/plugins";
 import { createAccessControl } from "better-auth/plugins/access";
 import { defaultStatements, adminAc } from "better-auth/plugins/admin/access";
 import { createPool } from "mysql2/promise";
+import { writeAudit } from "@/lib/audit/mutations";
 import { serverEnv } from "@/lib/env";
+import { passwordResetEmail } from "@/lib/mail/templates";
+import { sendMail } from "@/lib/mail/transport";
+
+/** A reset link is good for an hour and once; using it signs the person out everywhere. */
+const RESET_TOKEN_TTL_S = 60 * 60;
 
 // better-auth's own user-management statements; the product's rules are in permissions.ts.
 const ac = createAccessControl(defaultStatements);
@@ -36,6 +42,17 @@ export const auth = betterAuth({
     disableSignUp: true,
     minPasswordLength: 10,
     maxPasswordLength: 128,
+    resetPasswordTokenExpiresIn: RESET_TOKEN_TTL_S,
+    revokeSessionsOnPasswordReset: true,
+    // Links straight to our page (not better-auth's redirect endpoint) so the e-mail shows our address.
+    sendResetPassword: async ({ user, token }) => {
+      const url = new URL("/reset-password", serverEnv.APP_URL);
+      url.searchParams.set("token", token);
+      await sendMail({ to: user.email, ...passwordResetEmail({ name: user.name, url: url.href, validMinutes: RESET_TOKEN_TTL_S / 60 }) });
+    },
+    onPasswordReset: async ({ user }) => {
+      await writeAudit({ actor: { id: user.id, name: user.name }, action: "user.password_reset", entityType: "user", entityId: user.id });
+    },
   },
   session: {
     expiresIn: serverEnv.SESSION_MAX_AGE_S,

@@ -6,6 +6,9 @@ import type { Role } from "./roles";
  * is the second half of every check and lives in session.ts / scope helpers.
  */
 export const PERMISSIONS = {
+  /** Own account: who am I, my vessels. Every signed-in role. */
+  "account.self": ["admin", "superintendent", "chief_engineer", "engineer"],
+  /** Vessels, engines, units, inspection history — always limited by vessel scope. */
   "fleet.read": ["admin", "superintendent", "chief_engineer", "engineer"],
   "inspection.create": ["chief_engineer", "engineer"],
   "inspection.editDraft": ["chief_engineer", "engineer"],
@@ -20,8 +23,11 @@ export const PERMISSIONS = {
   "renewal.plan": ["superintendent"],
   "spares.manage": ["superintendent"],
   "data.export": ["superintendent", "chief_engineer"],
+  /** Users, roles, vessel assignments, invitations. */
   "admin.users": ["admin"],
+  /** Vessels, companies and main engines (with their cylinder units). */
   "admin.fleet": ["admin"],
+  /** Engine profiles: bore, stations, limits from the maker's manual. */
   "admin.profiles": ["admin"],
 } as const satisfies Record<string, readonly Role[]>;
 
@@ -31,6 +37,11 @@ export type Permission = keyof typeof PERMISSIONS;
 export function can(role: Role | null | undefined, permission: Permission): boolean {
   if (!role) return false;
   return (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}
+
+/** Every permission a role holds, e.g. to hand the client a list for hiding controls. */
+export function permissionsOf(role: Role): Permission[] {
+  return (Object.keys(PERMISSIONS) as Permission[]).filter((p) => can(role, p));
 }
 
 /** Admins see every vessel (to manage them); everyone else sees the vessels assigned to them. */

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { redirect } from "next/navigation";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { getCurrentUser } from "@/lib/auth/session";
@@ -14,6 +15,10 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       <h1 className="text-2xl font-semibold">Sign in</h1>
       <p className="mt-1 text-sm text-ink-soft">Liner and ring wear records for your fleet.</p>
       <SignInForm next={safeNext} />
+      <p className="mt-5 text-sm">
+        <Link href="/forgot-password" className="font-medium text-signal hover:underline">Forgot your password?</Link>
+      </p>
+      <p className="mt-2 text-xs text-ink-faint">Accounts are created by invitation from your administrator.</p>
     </div>
   );
 }

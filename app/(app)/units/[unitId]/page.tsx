@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ProfileChart } from "@/components/charts/profile-chart";
 import { TrendChart } from "@/components/charts/trend-chart";
-import { BandBadge } from "@/components/ui/band-badge";
+import { BandBadge, BandIcon } from "@/components/ui/band-badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
@@ -155,9 +155,10 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
                             {c ? (
                               <>
                                 <span className="text-ink-faint">{fixed(c.rawMm, 2)} / {fixed(c.correctedMm, 2)} / </span>
-                                <span className={over ? "font-semibold text-limit" : "font-semibold"}>
-                                  {over ? "⛔ " : ""}
+                                <span className={over ? "inline-flex items-center gap-1 font-semibold text-limit" : "font-semibold"}>
+                                  {over ? <BandIcon band="over_limit" className="h-3.5 w-3.5" /> : null}
                                   {fixed(c.wearMm, 2)}
+                                  {over ? <span className="sr-only"> (at or over the limit)</span> : null}
                                 </span>
                                 {!c.usable ? <span className="ml-1 text-xs text-caution">(implausible, not used)</span> : null}
                               </>
@@ -208,11 +209,11 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
                       <td className="num px-3 py-2 text-right text-ink-faint">{spec ? `${fixed(spec.grooveLimitMm)} mm` : "–"}</td>
                       <td className="px-3 py-2">
                         {r.overLimit ? (
-                          <span className="font-semibold text-limit">⛔ Over limit — renew</span>
+                          <span className="inline-flex items-center gap-1 font-semibold text-limit"><BandIcon band="over_limit" /> Over limit — renew</span>
                         ) : r.renew ? (
-                          <span className="font-semibold text-caution">▲ Renew at this overhaul</span>
+                          <span className="inline-flex items-center gap-1 font-semibold text-caution"><BandIcon band="renew_before_next" /> Renew at this overhaul</span>
                         ) : (
-                          <span className="text-steady">✓ Runs on</span>
+                          <span className="inline-flex items-center gap-1 text-steady"><BandIcon band="steady" /> Runs on</span>
                         )}
                         {r.reasons.length ? <span className="block text-xs text-ink-faint">{r.reasons.join(" ")}</span> : null}
                       </td>

@@ -1,0 +1,271 @@
+"use client";
+
+import { useState } from "react";
+import type { ContextProfile } from "@/lib/inspections/context";
+import { parseDecimal, randomToken, type FormState } from "@/lib/inspections/form";
+import { ROD_NUT_TOLERANCE, rodNutDeviation, tallyStatus } from "@/lib/inspections/rules";
+import { formatFixed } from "@/lib/units/length";
+import { cn } from "@/lib/utils";
+import { SafetyCautions } from "./safety-cautions";
+import { OverLimitMark, CautionMark } from "./marks";
+
+type Checklist = FormState["checklist"];
+
+const count = (t: string): number | null => {
+  const v = parseDecimal(t);
+  return typeof v === "number" && Number.isInteger(v) && v >= 0 ? v : null;
+};
+
+/** An ISO instant as the value of a datetime-local input, in the device's time zone. */
+function toLocalInput(iso: string): string {
+  if (!iso) return "";
+  const d = new Date(iso);
+  if (Number.isNaN(d.getTime())) return "";
+  const pad = (n: number) => String(n).padStart(2, "0");
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}T${pad(d.getHours())}:${pad(d.getMinutes())}`;
+}
+
+const inputCls = "block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3";
+
+/**
+ * The overhaul's closing items: the crankcase tool and rag tally (the door may be
+ * signed closed only when every count out equals the count in), the closing inspection
+ * signature, the piston rod nut tightening pressure against the profile, and the
+ * stuffing box and cylinder lubrication items.
+ */
+export function ChecklistForm({
+  profile,
+  checklist,
+  readOnly,
+  onChange,
+}: {
+  profile: ContextProfile;
+  checklist: Checklist;
+  readOnly?: boolean;
+  onChange: (update: (c: Checklist) => Checklist) => void;
+}) {
+  const [newLabel, setNewLabel] = useState("");
+  const statuses = checklist.tally.map((t) => tallyStatus({ countIn: count(t.countIn), countOut: count(t.countOut) }));
+  const allMatch = checklist.tally.length > 0 && statuses.every((s) => s === "match");
+  const pressure = parseDecimal(checklist.rodNutPressure);
+  const dev = rodNutDeviation(profile, typeof pressure === "number" ? pressure : null);
+  const signed = !!(checklist.closingName.trim() && checklist.closingAt);
+
+  const setTally = (i: number, patch: Partial<Checklist["tally"][number]>) =>
+    onChange((c) => ({ ...c, tally: c.tally.map((t, j) => (j === i ? { ...t, ...patch } : t)) }));
+
+  return (
+    <div className="space-y-5">
+      <SafetyCautions />
+
+      <section aria-labelledby="tally-h">
+        <h3 id="tally-h" className="font-semibold">
+          Crankcase tool and rag tally
+        </h3>
+        <p className="text-sm text-ink-soft">Count each kind of tool and rag as it goes in, and again as it comes out.</p>
+        <div className="relative mt-2 overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+          <table className="w-full min-w-[520px] text-sm">
+            <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
+              <tr>
+                <th className="px-3 py-2" scope="col">Tool or item</th>
+                <th className="w-24 px-2 py-2 text-right" scope="col">In</th>
+                <th className="w-24 px-2 py-2 text-right" scope="col">Out</th>
+                <th className="px-3 py-2" scope="col">Tally</th>
+                <th className="w-12 px-2 py-2" scope="col"><span className="sr-only">Remove</span></th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-ink-line/70">
+              {checklist.tally.map((t, i) => {
+                const st = statuses[i];
+                return (
+                  <tr key={t.key}>
+                    <td className="px-3 py-1.5">
+                      <input aria-label={`Tool or item ${i + 1}`} className={inputCls} value={t.label} readOnly={readOnly} onChange={(e) => setTally(i, { label: e.target.value })} />
+                    </td>
+                    <td className="px-2 py-1.5">
+                      <input
+                        aria-label={`${t.label || `Item ${i + 1}`}: count taken in`}
+                        inputMode="numeric"
+                        className={cn(inputCls, "num text-right text-lg")}
+                        value={t.countIn}
+                        readOnly={readOnly}
+                        onChange={(e) => setTally(i, { countIn: e.target.value })}
+                      />
+                    </td>
+                    <td className="px-2 py-1.5">
+                      <input
+                        aria-label={`${t.label || `Item ${i + 1}`}: count brought out`}
+                        inputMode="numeric"
+                        className={cn(inputCls, "num text-right text-lg")}
+                        value={t.countOut}
+                        readOnly={readOnly}
+                        onChange={(e) => setTally(i, { countOut: e.target.value })}
+                      />
+                    </td>
+                    <td className="px-3 py-1.5">
+                      {st === "match" ? (
+                        <span className="font-medium text-steady">✓ all out</span>
+                      ) : st === "mismatch" ? (
+                        <span className="font-semibold text-limit">
+                          <OverLimitMark />
+                          {Math.abs((count(t.countIn) ?? 0) - (count(t.countOut) ?? 0))} {(count(t.countOut) ?? 0) < (count(t.countIn) ?? 0) ? "still inside" : "more out than in"}
+                        </span>
+                      ) : (
+                        <span className="text-ink-faint">not counted</span>
+                      )}
+                    </td>
+                    <td className="px-2 py-1.5">
+                      {readOnly ? null : (
+                        <button
+                          type="button"
+                          className="min-h-12 min-w-12 rounded-md text-lg text-ink-soft hover:bg-paper-sunk"
+                          aria-label={`Remove ${t.label || `item ${i + 1}`}`}
+                          onClick={() => onChange((c) => ({ ...c, tally: c.tally.filter((_, j) => j !== i) }))}
+                        >
+                          ×
+                        </button>
+                      )}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+        {readOnly ? null : (
+          <form
+            className="mt-2 flex flex-wrap gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              const label = newLabel.trim();
+              if (!label) return;
+              onChange((c) => ({ ...c, tally: [...c.tally, { key: `tally_${randomToken(10)}`, label, countIn: "", countOut: "" }] }));
+              setNewLabel("");
+            }}
+          >
+            <input aria-label="New tool or item" className={cn(inputCls, "max-w-sm flex-1")} placeholder="Add a tool or item…" value={newLabel} onChange={(e) => setNewLabel(e.target.value)} />
+            <button type="submit" className="min-h-12 rounded-md border border-ink-line bg-paper-raised px-4 font-medium hover:border-signal">
+              Add to tally
+            </button>
+          </form>
+        )}
+        <p className={cn("mt-2 text-sm font-medium", allMatch ? "text-steady" : "text-ink-soft")} role="status">
+          {allMatch ? "✓ Every count out equals the count in." : "The closing inspection can be signed when every count out equals the count in."}
+        </p>
+      </section>
+
+      <section aria-labelledby="closing-h" className="rounded-lg border border-ink-line bg-paper-raised p-3">
+        <h3 id="closing-h" className="font-semibold">
+          Closing inspection
+        </h3>
+        <p className="text-sm text-ink-soft">Looked inside once more: no tools, rags or loose parts; then the door is closed.</p>
+        <div className="mt-2 grid gap-3 sm:grid-cols-[1fr_auto_auto] sm:items-end">
+          <div>
+            <label htmlFor="closing-name" className="block text-sm font-medium text-ink-soft">
+              Signed by (name)
+            </label>
+            <input
+              id="closing-name"
+              className={cn(inputCls, "mt-1")}
+              value={checklist.closingName}
+              readOnly={readOnly || (!allMatch && !signed)}
+              onChange={(e) => onChange((c) => ({ ...c, closingName: e.target.value }))}
+            />
+          </div>
+          <div>
+            <label htmlFor="closing-at" className="block text-sm font-medium text-ink-soft">
+              Time
+            </label>
+            <input
+              id="closing-at"
+              type="datetime-local"
+              className={cn(inputCls, "num mt-1")}
+              value={toLocalInput(checklist.closingAt)}
+              readOnly={readOnly || (!allMatch && !signed)}
+              onChange={(e) => onChange((c) => ({ ...c, closingAt: e.target.value ? new Date(e.target.value).toISOString() : "" }))}
+            />
+          </div>
+          {readOnly ? null : (
+            <button
+              type="button"
+              disabled={!allMatch || !checklist.closingName.trim()}
+              className="min-h-12 rounded-md border border-signal bg-signal px-4 font-medium text-white disabled:cursor-not-allowed disabled:opacity-50"
+              onClick={() => onChange((c) => ({ ...c, closingAt: new Date().toISOString() }))}
+            >
+              Sign now
+            </button>
+          )}
+        </div>
+        {!allMatch ? <p className="mt-2 text-sm font-medium text-limit"><OverLimitMark />Not yet: the tally does not match, so the crankcase must not be closed.</p> : null}
+        {signed && allMatch ? <p className="mt-2 text-sm font-medium text-steady">✓ Signed by {checklist.closingName.trim()}.</p> : null}
+      </section>
+
+      <section aria-labelledby="rodnut-h" className="rounded-lg border border-ink-line bg-paper-raised p-3">
+        <h3 id="rodnut-h" className="font-semibold">
+          Piston rod nut tightening pressure
+        </h3>
+        <div className="mt-2 grid gap-3 sm:grid-cols-[12rem_1fr] sm:items-center">
+          <div className="relative">
+            <input
+              aria-label="Rod nut tightening pressure in bar"
+              inputMode="decimal"
+              className={cn(inputCls, "num pr-12 text-right text-lg")}
+              value={checklist.rodNutPressure}
+              readOnly={readOnly}
+              onChange={(e) => onChange((c) => ({ ...c, rodNutPressure: e.target.value }))}
+            />
+            <span className="pointer-events-none absolute top-1/2 right-3 -translate-y-1/2 text-ink-faint">bar</span>
+          </div>
+          <p className="text-sm tabular-nums">
+            {profile.rodNutPressureBar == null ? (
+              <span className="text-ink-faint">The engine profile has no rod nut pressure; use the maker&apos;s manual.</span>
+            ) : pressure === "invalid" ? (
+              <span className="font-medium text-caution">⚠ Not a number.</span>
+            ) : dev === null ? (
+              <span className="text-ink-faint">Profile: {formatFixed(profile.rodNutPressureBar, 0)} bar (maker&apos;s manual governs).</span>
+            ) : Math.abs(dev) > ROD_NUT_TOLERANCE ? (
+              <span className="font-semibold text-caution">
+                <CautionMark />
+                {dev > 0 ? "+" : ""}
+                {formatFixed(dev * 100, 1)} % from the profile&apos;s {formatFixed(profile.rodNutPressureBar, 0)} bar: check against the maker&apos;s manual.
+              </span>
+            ) : (
+              <span className="text-steady">
+                ✓ Matches the profile&apos;s {formatFixed(profile.rodNutPressureBar, 0)} bar ({dev > 0 ? "+" : ""}
+                {formatFixed(dev * 100, 1)} %).
+              </span>
+            )}
+          </p>
+        </div>
+      </section>
+
+      {(
+        [
+          ["stuffingBox", "Piston rod stuffing box overhauled and checked", "stuffingBoxDone", "stuffingBoxNote"],
+          ["lubrication", "Cylinder lubrication checked: quills, feed rate, oil", "lubricationDone", "lubricationNote"],
+        ] as const
+      ).map(([id, label, doneKey, noteKey]) => (
+        <section key={id} className="rounded-lg border border-ink-line bg-paper-raised p-3">
+          <label className="flex min-h-12 cursor-pointer items-center gap-3">
+            <input
+              type="checkbox"
+              className="h-6 w-6 accent-[#0a5c73]"
+              checked={checklist[doneKey]}
+              disabled={readOnly}
+              onChange={(e) => onChange((c) => ({ ...c, [doneKey]: e.target.checked }))}
+            />
+            <span className="font-semibold">{label}</span>
+          </label>
+          <input
+            aria-label={`${label}: note`}
+            className={cn(inputCls, "mt-2")}
+            placeholder="Note (optional)"
+            value={checklist[noteKey]}
+            readOnly={readOnly}
+            onChange={(e) => onChange((c) => ({ ...c, [noteKey]: e.target.value }))}
+          />
+        </section>
+      ))}
+    </div>
+  );
+}

@@ -1,0 +1,167 @@
+"use client";
+
+import type { ContextProfile } from "@/lib/inspections/context";
+import { parseDecimal, type RingEntry } from "@/lib/inspections/form";
+import { RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
+import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/schemas";
+import type { RingState } from "@/lib/rings/rings";
+import { formatFixed } from "@/lib/units/length";
+import { cn } from "@/lib/utils";
+import { OverLimitMark, CautionMark, OkMark } from "./marks";
+
+const mm = (v: number) => formatFixed(v, 2);
+
+function StateLine({ state, newMin, newMax, limit }: { state: RingState | null; newMin: number; newMax: number; limit: number }) {
+  const ranges = (
+    <span className="text-ink-faint">
+      new {mm(newMin)}–{mm(newMax)} mm · limit {mm(limit)} mm
+    </span>
+  );
+  if (!state) return <p className="text-sm tabular-nums">{ranges}</p>;
+  const over = state === "at_or_over_limit";
+  const odd = state === "below_new_range";
+  return (
+    <p className="text-sm tabular-nums">
+      <span className={cn(over ? "font-semibold text-limit" : odd ? "font-medium text-caution" : state === "worn" ? "text-ink" : "text-ink-soft")}>
+        {over ? <OverLimitMark /> : odd ? <CautionMark /> : <OkMark />}
+        {RING_STATE_TEXT[state]}
+      </span>
+      <br />
+      {ranges}
+    </p>
+  );
+}
+
+export const ringInputId = (position: number, what: "gap" | "groove") => `ring-${position}-${what}`;
+
+/** Rings by position: closed gap (and where it was measured), groove clearance, renewed, condition — each against the profile. */
+export function RingTable({
+  profile,
+  rings,
+  readOnly,
+  onChange,
+}: {
+  profile: ContextProfile;
+  rings: Record<string, RingEntry>;
+  readOnly?: boolean;
+  onChange: (position: number, patch: Partial<RingEntry>) => void;
+}) {
+  return (
+    <ol className="grid gap-3 lg:grid-cols-2">
+      {profile.rings.map((spec, i) => {
+        const r = rings[spec.position] ?? { closedGap: "", gapMeasuredIn: "gauge_ring", groove: "", renewed: false, condition: "" };
+        const gap = parseDecimal(r.closedGap);
+        const groove = parseDecimal(r.groove);
+        const live = ringLive(spec, typeof gap === "number" ? gap : null, typeof groove === "number" ? groove : null);
+        const next = profile.rings[i + 1];
+        const focusNext = (e: React.KeyboardEvent<HTMLInputElement>, id: string | null) => {
+          if (e.key !== "Enter" || !id) return;
+          e.preventDefault();
+          (document.getElementById(id) as HTMLInputElement | null)?.focus();
+        };
+        return (
+          <li key={spec.position} className="rounded-lg border border-ink-line bg-paper-raised p-3">
+            <h3 className="mb-2 font-semibold">{spec.label}</h3>
+            <div className="grid gap-3 sm:grid-cols-2">
+              <div>
+                <label htmlFor={ringInputId(spec.position, "gap")} className="block text-sm font-medium text-ink-soft">
+                  Closed gap (mm)
+                </label>
+                <input
+                  id={ringInputId(spec.position, "gap")}
+                  type="text"
+                  inputMode="decimal"
+                  enterKeyHint="next"
+                  autoComplete="off"
+                  readOnly={readOnly}
+                  value={r.closedGap}
+                  aria-invalid={gap === "invalid" || undefined}
+                  onChange={(e) => onChange(spec.position, { closedGap: e.target.value })}
+                  onKeyDown={(e) => focusNext(e, ringInputId(spec.position, "groove"))}
+                  className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution"
+                />
+                {gap === "invalid" ? <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p> : null}
+                <StateLine state={live.gap} newMin={spec.gapNewMinMm} newMax={spec.gapNewMaxMm} limit={spec.gapLimitMm} />
+              </div>
+              <div>
+                <label htmlFor={ringInputId(spec.position, "groove")} className="block text-sm font-medium text-ink-soft">
+                  Groove axial clearance (mm)
+                </label>
+                <input
+                  id={ringInputId(spec.position, "groove")}
+                  type="text"
+                  inputMode="decimal"
+                  enterKeyHint="next"
+                  autoComplete="off"
+                  readOnly={readOnly}
+                  value={r.groove}
+                  aria-invalid={groove === "invalid" || undefined}
+                  onChange={(e) => onChange(spec.position, { groove: e.target.value })}
+                  onKeyDown={(e) => focusNext(e, next ? ringInputId(next.position, "gap") : null)}
+                  className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution"
+                />
+                {groove === "invalid" ? <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p> : null}
+                <StateLine state={live.groove} newMin={spec.grooveNewMinMm} newMax={spec.grooveNewMaxMm} limit={spec.grooveLimitMm} />
+              </div>
+            </div>
+            <fieldset className="mt-3">
+              <legend className="text-sm font-medium text-ink-soft">Gap measured in</legend>
+              <div className="mt-1 grid grid-cols-3 gap-1">
+                {GAP_MEASURED_IN.map((m) => (
+                  <label
+                    key={m}
+                    className={cn(
+                      "flex min-h-12 cursor-pointer items-center justify-center rounded-md border px-2 text-center text-sm",
+                      r.gapMeasuredIn === m ? "border-signal bg-signal-tint font-semibold text-signal-strong" : "border-ink-line bg-paper",
+                    )}
+                  >
+                    <input
+                      type="radio"
+                      className="sr-only"
+                      name={`ring-${spec.position}-measured`}
+                      value={m}
+                      checked={r.gapMeasuredIn === m}
+                      disabled={readOnly}
+                      onChange={() => onChange(spec.position, { gapMeasuredIn: m })}
+                    />
+                    {GAP_MEASURED_IN_LABELS[m]}
+                  </label>
+                ))}
+              </div>
+              {r.gapMeasuredIn === "liner_worn" ? (
+                <p className="mt-1 text-sm text-ink-soft">A gap measured in a worn part of the liner reads larger than in a gauge ring (by π × the diameter increase there).</p>
+              ) : null}
+            </fieldset>
+            <div className="mt-3 grid gap-3 sm:grid-cols-[auto_1fr] sm:items-end">
+              <label className="flex min-h-12 cursor-pointer items-center gap-3 rounded-md border border-ink-line bg-paper px-3">
+                <input
+                  type="checkbox"
+                  className="h-6 w-6 accent-[#0a5c73]"
+                  checked={r.renewed}
+                  disabled={readOnly}
+                  onChange={(e) => onChange(spec.position, { renewed: e.target.checked })}
+                />
+                <span className="font-medium">Renewed</span>
+              </label>
+              <div>
+                <label htmlFor={`ring-${spec.position}-condition`} className="block text-sm font-medium text-ink-soft">
+                  Condition
+                </label>
+                <input
+                  id={`ring-${spec.position}-condition`}
+                  type="text"
+                  autoComplete="off"
+                  readOnly={readOnly}
+                  value={r.condition}
+                  placeholder="e.g. free in groove, light scuffing"
+                  onChange={(e) => onChange(spec.position, { condition: e.target.value })}
+                  className="mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3"
+                />
+              </div>
+            </div>
+          </li>
+        );
+      })}
+    </ol>
+  );
+}

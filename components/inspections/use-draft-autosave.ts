@@ -1,0 +1,234 @@
+"use client";
+
+import { useCallback, useEffect, useRef, useState } from "react";
+import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
+import type { ContextProfile } from "@/lib/inspections/context";
+import { fromDraft, toDraft, type FormState } from "@/lib/inspections/form";
+import { describeIssues, inspectionDraftSchema, type InspectionDto } from "@/lib/inspections/schemas";
+
+/*
+ * Keeps a draft safe: every change is written to this device at once (localStorage),
+ * then saved to the server a moment later with the revision the device last had. No
+ * network → "offline — kept on this device" and a retry when it returns. Another
+ * device saved first → 409 with the server's copy, and the engineer chooses; nothing is
+ * overwritten silently in either direction.
+ */
+
+export type SaveStatus =
+  | { kind: "saved"; at: string | null }
+  | { kind: "pending" }
+  | { kind: "saving" }
+  | { kind: "offline" }
+  | { kind: "conflict"; message: string }
+  | { kind: "refused"; message: string; field?: string };
+
+type LocalRecord = { v: 1; baseRevision: number; form: FormState; dirty: boolean; at: string };
+
+const SAVE_DELAY_MS = 1200;
+const RETRY_MS = 10_000;
+
+export const localKey = (id: number) => `kalibore:inspection:${id}`;
+
+function readLocal(id: number): LocalRecord | null {
+  try {
+    const raw = localStorage.getItem(localKey(id));
+    const rec = raw ? (JSON.parse(raw) as LocalRecord) : null;
+    return rec?.v === 1 ? rec : null;
+  } catch {
+    return null;
+  }
+}
+
+function writeLocal(id: number, rec: LocalRecord) {
+  try {
+    localStorage.setItem(localKey(id), JSON.stringify(rec));
+  } catch {
+    // Storage full or disabled: the server save still runs; nothing else to do here.
+  }
+}
+
+export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile) {
+  const id = initial.id;
+  const [form, setFormState] = useState<FormState>(() => fromDraft(initial.draft, profile));
+  const [status, setStatus] = useState<SaveStatus>({ kind: "saved", at: initial.updatedAt });
+  const [conflict, setConflict] = useState<InspectionDto | null>(null);
+  const [invalid, setInvalid] = useState<string[]>([]);
+  const [restored, setRestored] = useState(false);
+
+  const formRef = useRef(form);
+  const revisionRef = useRef(initial.revision);
+  const fallbackRef = useRef(initial.draft.header);
+  const editSeq = useRef(0);
+  const dirtyRef = useRef(false);
+  const inflight = useRef<Promise<boolean> | null>(null);
+  const timer = useRef<number | null>(null);
+  const blocked = useRef(false); // true while a conflict waits for the engineer's choice
+
+  const persistLocal = useCallback(
+    (dirty: boolean) => writeLocal(id, { v: 1, baseRevision: revisionRef.current, form: formRef.current, dirty, at: new Date().toISOString() }),
+    [id],
+  );
+
+  const save = useCallback(async (): Promise<boolean> => {
+    // One save at a time: two PUTs with the same revision would conflict with each other.
+    while (inflight.current) {
+      await inflight.current.catch(() => false);
+      if (!dirtyRef.current) return true;
+    }
+    if (blocked.current) return false;
+    const run = (async () => {
+      const seq = editSeq.current;
+      const { draft, invalid: bad } = toDraft(formRef.current, profile, fallbackRef.current);
+      setInvalid(bad);
+      // The same schema the server parses with: a refusal here means a bug, not a typo.
+      const parsed = inspectionDraftSchema.safeParse(draft);
+      if (!parsed.success) {
+        const d = describeIssues(parsed.error);
+        setStatus({ kind: "refused", message: d.message, field: d.field });
+        return false;
+      }
+      setStatus({ kind: "saving" });
+      try {
+        const res = await apiJson<{ revision: number }>(`/api/inspections/${id}`, { method: "PUT", body: { revision: revisionRef.current, draft: parsed.data } });
+        revisionRef.current = res.revision;
+        fallbackRef.current = parsed.data.header;
+        if (seq === editSeq.current) {
+          dirtyRef.current = false;
+          persistLocal(false);
+          setStatus({ kind: "saved", at: new Date().toISOString() });
+        } else {
+          persistLocal(true);
+          setStatus({ kind: "pending" });
+        }
+        return true;
+      } catch (err) {
+        if (err instanceof NetworkError) {
+          setStatus({ kind: "offline" });
+        } else if (err instanceof ApiError && err.status === 409) {
+          blocked.current = true;
+          setConflict((err.body.details?.server as InspectionDto | undefined) ?? null);
+          setStatus({ kind: "conflict", message: err.message });
+        } else if (err instanceof ApiError && err.status === 401) {
+          setStatus({ kind: "refused", message: "Your session has ended. Sign in again in another tab; everything is kept on this device." });
+        } else if (err instanceof ApiError) {
+          setStatus({ kind: "refused", message: err.message, field: err.body.details?.field });
+        } else {
+          setStatus({ kind: "offline" });
+        }
+        return false;
+      }
+    })();
+    inflight.current = run;
+    try {
+      return await run;
+    } finally {
+      inflight.current = null;
+    }
+  }, [id, persistLocal, profile]);
+
+  const schedule = useCallback(() => {
+    if (timer.current) window.clearTimeout(timer.current);
+    timer.current = window.setTimeout(() => {
+      timer.current = null;
+      void save();
+    }, SAVE_DELAY_MS);
+  }, [save]);
+
+  const setForm = useCallback(
+    (update: (f: FormState) => FormState) => {
+      const next = update(formRef.current);
+      formRef.current = next;
+      editSeq.current += 1;
+      dirtyRef.current = true;
+      setFormState(next);
+      persistLocal(true);
+      if (!blocked.current) {
+        setStatus((s) => (s.kind === "offline" ? s : { kind: "pending" }));
+        schedule();
+      }
+    },
+    [persistLocal, schedule],
+  );
+
+  // On opening: unsaved edits kept on this device win over the server copy they were based on;
+  // if the server moved on meanwhile, that is a conflict for the engineer to settle.
+  useEffect(() => {
+    const local = readLocal(id);
+    if (local?.dirty) {
+      formRef.current = local.form;
+      setFormState(local.form);
+      dirtyRef.current = true;
+      setRestored(true);
+      if (local.baseRevision === initial.revision) {
+        void save();
+      } else {
+        blocked.current = true;
+        setConflict(initial);
+        setStatus({ kind: "conflict", message: "This device holds changes that were not saved, and the draft on the server changed since. Choose which to keep." });
+      }
+    } else {
+      persistLocal(false);
+    }
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [id]);
+
+  // Retry when the network returns, and now and then in case the browser does not say.
+  useEffect(() => {
+    const retry = () => {
+      if (dirtyRef.current && !blocked.current) void save();
+    };
+    window.addEventListener("online", retry);
+    const t = window.setInterval(retry, RETRY_MS);
+    return () => {
+      window.removeEventListener("online", retry);
+      window.clearInterval(t);
+    };
+  }, [save]);
+
+  /** Settle a conflict: keep what this device has (saved over the server's copy, knowingly) or take the server's. */
+  const resolveConflict = useCallback(
+    async (choice: "mine" | "theirs") => {
+      const server = conflict;
+      if (!server) return;
+      revisionRef.current = server.revision;
+      fallbackRef.current = server.draft.header;
+      blocked.current = false;
+      setConflict(null);
+      if (choice === "theirs") {
+        const f = fromDraft(server.draft, profile);
+        formRef.current = f;
+        setFormState(f);
+        dirtyRef.current = false;
+        persistLocal(false);
+        setStatus({ kind: "saved", at: server.updatedAt });
+      } else {
+        dirtyRef.current = true;
+        editSeq.current += 1;
+        persistLocal(true);
+        await save();
+      }
+    },
+    [conflict, persistLocal, profile, save],
+  );
+
+  /** Save now and wait (before submitting). True when the server holds exactly what is on screen. */
+  const flush = useCallback(async () => {
+    if (timer.current) {
+      window.clearTimeout(timer.current);
+      timer.current = null;
+    }
+    if (dirtyRef.current) return save();
+    if (inflight.current) return inflight.current;
+    return !blocked.current;
+  }, [save]);
+
+  const forget = useCallback(() => {
+    try {
+      localStorage.removeItem(localKey(id));
+    } catch {
+      /* nothing kept */
+    }
+  }, [id]);
+
+  return { form, setForm, status, conflict, resolveConflict, invalid, flush, forget, restored, revision: () => revisionRef.current };
+}

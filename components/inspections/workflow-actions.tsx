@@ -1,0 +1,107 @@
+"use client";
+
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useRef, useState } from "react";
+import { Button, buttonClass } from "@/components/ui/button";
+import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
+import { randomToken } from "@/lib/inspections/form";
+import type { InspectionState } from "@/lib/inspections/schemas";
+
+export type WorkflowAllowed = { edit: boolean; approve: boolean; return: boolean; amend: boolean };
+
+function messageOf(err: unknown): string {
+  if (err instanceof NetworkError) return "No network: try again when you are back online.";
+  if (err instanceof ApiError) {
+    const problems = err.body.details?.problems;
+    return problems?.length ? problems.map((p) => p.message).join(" ") : err.message;
+  }
+  return "Something went wrong; nothing was changed.";
+}
+
+/**
+ * The workflow buttons a role may use in the record's current state. Hiding is only a
+ * courtesy: the server checks the role, the vessel and the state on every call.
+ */
+export function WorkflowActions({ inspectionId, state, allowed }: { inspectionId: number; state: InspectionState; allowed: WorkflowAllowed }) {
+  const router = useRouter();
+  const [mode, setMode] = useState<"none" | "return" | "amend">("none");
+  const [text, setText] = useState("");
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const amendToken = useRef(randomToken(24));
+
+  async function run(path: string, body: unknown, then: (res: { id: number }) => void) {
+    setBusy(true);
+    setError(null);
+    try {
+      const res = await apiJson<{ id: number }>(`/api/inspections/${inspectionId}/${path}`, { method: "POST", body });
+      then(res);
+    } catch (err) {
+      setError(messageOf(err));
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const canAct =
+    ((state === "draft" || state === "returned") && allowed.edit) ||
+    (state === "submitted" && (allowed.approve || allowed.return)) ||
+    (state === "approved" && allowed.amend);
+  if (!canAct) return null;
+
+  return (
+    <div className="no-print space-y-3">
+      <div className="flex flex-wrap gap-2">
+        {(state === "draft" || state === "returned") && allowed.edit ? (
+          <Link href={`/inspections/${inspectionId}/edit`} className={buttonClass("primary", "lg")}>
+            Continue entry
+          </Link>
+        ) : null}
+        {state === "submitted" && allowed.approve ? (
+          <Button size="lg" disabled={busy} onClick={() => run("approve", {}, () => router.refresh())}>
+            Approve
+          </Button>
+        ) : null}
+        {state === "submitted" && allowed.return ? (
+          <Button size="lg" variant="secondary" disabled={busy} onClick={() => setMode(mode === "return" ? "none" : "return")}>
+            Return for correction…
+          </Button>
+        ) : null}
+        {state === "approved" && allowed.amend ? (
+          <Button size="lg" variant="secondary" disabled={busy} onClick={() => setMode(mode === "amend" ? "none" : "amend")}>
+            Amend…
+          </Button>
+        ) : null}
+      </div>
+      {mode !== "none" ? (
+        <form
+          className="space-y-2 rounded-lg border border-ink-line bg-paper-raised p-3"
+          onSubmit={(e) => {
+            e.preventDefault();
+            if (mode === "return") run("return", { comment: text }, () => router.refresh());
+            else run("amend", { reason: text, clientToken: amendToken.current }, (res) => router.push(`/inspections/${res.id}/edit`));
+          }}
+        >
+          <label htmlFor="workflow-text" className="block text-sm font-medium text-ink-soft">
+            {mode === "return" ? "What must be corrected?" : "Reason for the amendment (kept in the record)"}
+          </label>
+          <textarea id="workflow-text" rows={3} required className="block w-full rounded-md border border-ink-line bg-paper-raised p-3" value={text} onChange={(e) => setText(e.target.value)} />
+          <p className="text-sm text-ink-faint">
+            {mode === "amend"
+              ? "The approved record stays as it is; a new version opens as a draft, and replaces it only when that version is approved."
+              : "The engineer sees your comment on the gauging sheet."}
+          </p>
+          <Button type="submit" disabled={busy || text.trim().length < (mode === "amend" ? 5 : 3)}>
+            {mode === "return" ? "Return with this comment" : "Open the amendment"}
+          </Button>
+        </form>
+      ) : null}
+      {error ? (
+        <p role="alert" className="text-sm font-medium text-caution">
+          ⚠ {error}
+        </p>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,221 @@
+import { MM_PER_INCH, type LengthUnit } from "@/lib/units/length";
+import type { ContextProfile } from "./context";
+import { cellKey } from "./context";
+import type { InspectionDraft, InspectionHeader, RingReadingInput } from "./schemas";
+import { emptyChecklist } from "./schemas";
+
+/*
+ * The entry form keeps what was typed as text, exactly, so a half-typed or mistyped
+ * value survives a reload and an offline spell on the device; `toDraft` turns it into
+ * the numbers the server stores (in millimetres) and lists what could not be read.
+ */
+
+export type CellEntry = { text: string; unit: LengthUnit; confirmed: string | null };
+export type RingEntry = { closedGap: string; gapMeasuredIn: RingReadingInput["gapMeasuredIn"]; groove: string; renewed: boolean; condition: string };
+export type TallyEntry = { key: string; label: string; countIn: string; countOut: string };
+
+export type FormState = {
+  header: {
+    inspectedOn: string;
+    engineHours: string;
+    linerHours: string;
+    linerHoursReason: string;
+    crew: string;
+    gaugeTempC: string;
+    linerTempC: string;
+    notes: string;
+  };
+  entryUnit: LengthUnit;
+  cells: Record<string, CellEntry>;
+  rings: Record<string, RingEntry>;
+  checklist: {
+    tally: TallyEntry[];
+    closingName: string;
+    /** ISO instant, or "" when not signed. */
+    closingAt: string;
+    rodNutPressure: string;
+    stuffingBoxDone: boolean;
+    stuffingBoxNote: string;
+    lubricationDone: boolean;
+    lubricationNote: string;
+  };
+};
+
+/**
+ * A number as typed on a tablet: a comma or a point for the decimal, spaces ignored.
+ * Null for an empty field; "invalid" for anything else that is not a plain number.
+ */
+export function parseDecimal(text: string): number | null | "invalid" {
+  const t = text.replace(/[\s\u2009]/g, "").replace(",", ".");
+  if (t === "") return null;
+  if (!/^[+-]?(\d+\.?\d*|\.\d+)$/.test(t)) return "invalid";
+  const n = Number(t);
+  return Number.isFinite(n) ? n : "invalid";
+}
+
+/** A length as typed, in millimetres rounded to the 1 µm the database keeps. */
+export function toMm(value: number, unit: LengthUnit): number {
+  const mm = unit === "in" ? value * MM_PER_INCH : value;
+  return Math.round(mm * 1000) / 1000;
+}
+
+/** A stored millimetre value as text in the unit it is shown in (inches to 0.0001 in). */
+export function lengthText(mm: number, unit: LengthUnit): string {
+  // Gauges read to 0.01 mm: keep two decimals at least, and the third when the value has one.
+  if (unit === "mm") return (Math.round(mm * 1000) / 1000).toFixed(3).replace(/0$/, "");
+  return (mm / MM_PER_INCH).toFixed(4);
+}
+
+const str = (v: number | null | undefined) => (v == null ? "" : String(v));
+
+export function fromDraft(draft: InspectionDraft, profile: ContextProfile): FormState {
+  const cells: Record<string, CellEntry> = {};
+  for (const r of draft.readings) {
+    cells[cellKey(r.stationKey, r.axisKey)] = { text: lengthText(r.diameterMm, r.enteredUnit), unit: r.enteredUnit, confirmed: r.warningConfirmed };
+  }
+  const rings: Record<string, RingEntry> = {};
+  for (const spec of profile.rings) {
+    const r = draft.rings.find((x) => x.position === spec.position);
+    rings[spec.position] = {
+      closedGap: str(r?.closedGapMm),
+      gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
+      groove: str(r?.grooveClearanceMm),
+      renewed: r?.renewed ?? false,
+      condition: r?.condition ?? "",
+    };
+  }
+  const c = draft.checklist ?? emptyChecklist();
+  const units = draft.readings.map((r) => r.enteredUnit);
+  return {
+    header: {
+      inspectedOn: draft.header.inspectedOn,
+      engineHours: str(draft.header.engineHours),
+      linerHours: str(draft.header.linerHours),
+      linerHoursReason: draft.header.linerHoursReason ?? "",
+      crew: draft.header.crew ?? "",
+      gaugeTempC: str(draft.header.gaugeTempC),
+      linerTempC: str(draft.header.linerTempC),
+      notes: draft.header.notes ?? "",
+    },
+    entryUnit: units.length && units.every((u) => u === "in") ? "in" : "mm",
+    cells,
+    rings,
+    checklist: {
+      tally: c.tally.map((t) => ({ key: t.key, label: t.label, countIn: str(t.countIn), countOut: str(t.countOut) })),
+      closingName: c.closing.signedName ?? "",
+      closingAt: c.closing.signedAt ?? "",
+      rodNutPressure: str(c.rodNutPressureBar),
+      stuffingBoxDone: c.stuffingBox.done,
+      stuffingBoxNote: c.stuffingBox.note ?? "",
+      lubricationDone: c.cylinderLubrication.done,
+      lubricationNote: c.cylinderLubrication.note ?? "",
+    },
+  };
+}
+
+export type ConvertedForm = {
+  draft: InspectionDraft;
+  /** Fields whose text is not a number: kept on the device, not sent to the server. */
+  invalid: string[];
+};
+
+/**
+ * The form as the draft the server stores. Text that does not read as a number is left
+ * out (and listed) rather than sent, so one mistyped cell never blocks saving the rest;
+ * required header numbers that do not read fall back to the last saved values.
+ */
+export function toDraft(form: FormState, profile: ContextProfile, fallback: InspectionHeader): ConvertedForm {
+  const invalid: string[] = [];
+  const read = (field: string, text: string): number | null => {
+    const v = parseDecimal(text);
+    if (v === "invalid") {
+      invalid.push(field);
+      return null;
+    }
+    return v;
+  };
+  const required = (field: string, text: string, fb: number) => {
+    const v = read(field, text);
+    if (v === null && !invalid.includes(field)) invalid.push(field);
+    return v ?? fb;
+  };
+  const count = (field: string, text: string) => {
+    const v = read(field, text);
+    if (v !== null && (!Number.isInteger(v) || v < 0)) {
+      invalid.push(field);
+      return null;
+    }
+    return v;
+  };
+  const text = (s: string) => (s.trim() === "" ? null : s.trim());
+
+  const header: InspectionHeader = {
+    inspectedOn: /^\d{4}-\d{2}-\d{2}$/.test(form.header.inspectedOn) ? form.header.inspectedOn : fallback.inspectedOn,
+    engineHours: required("header.engineHours", form.header.engineHours, fallback.engineHours),
+    linerHours: required("header.linerHours", form.header.linerHours, fallback.linerHours),
+    linerHoursReason: text(form.header.linerHoursReason),
+    crew: text(form.header.crew),
+    gaugeTempC: read("header.gaugeTempC", form.header.gaugeTempC),
+    linerTempC: read("header.linerTempC", form.header.linerTempC),
+    notes: text(form.header.notes),
+  };
+
+  const readings: InspectionDraft["readings"] = [];
+  for (const s of profile.stations) {
+    for (const a of profile.axes) {
+      const key = cellKey(s.key, a.key);
+      const cell = form.cells[key];
+      if (!cell) continue;
+      const v = read(`readings.${key}`, cell.text);
+      if (v === null) continue;
+      if (v <= 0) {
+        invalid.push(`readings.${key}`);
+        continue;
+      }
+      readings.push({ stationKey: s.key, axisKey: a.key, diameterMm: toMm(v, cell.unit), enteredUnit: cell.unit, warningConfirmed: cell.confirmed });
+    }
+  }
+
+  const rings: InspectionDraft["rings"] = profile.rings.map((spec) => {
+    const r = form.rings[spec.position];
+    return {
+      position: spec.position,
+      closedGapMm: r ? read(`rings.${spec.position}.closedGapMm`, r.closedGap) : null,
+      gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
+      grooveClearanceMm: r ? read(`rings.${spec.position}.grooveClearanceMm`, r.groove) : null,
+      renewed: r?.renewed ?? false,
+      condition: r ? text(r.condition) : null,
+    };
+  });
+
+  const c = form.checklist;
+  const draft: InspectionDraft = {
+    header,
+    readings,
+    rings,
+    checklist: {
+      tally: c.tally.map((t, i) => ({
+        key: t.key,
+        label: t.label.trim() || `Item ${i + 1}`,
+        countIn: count(`checklist.tally.${i}.countIn`, t.countIn),
+        countOut: count(`checklist.tally.${i}.countOut`, t.countOut),
+      })),
+      closing: { signedName: text(c.closingName), signedAt: c.closingAt || null },
+      rodNutPressureBar: read("checklist.rodNutPressureBar", c.rodNutPressure),
+      stuffingBox: { done: c.stuffingBoxDone, note: text(c.stuffingBoxNote) },
+      cylinderLubrication: { done: c.lubricationDone, note: text(c.lubricationNote) },
+    },
+  };
+  return { draft, invalid };
+}
+
+/** A short random token for idempotent creates and tally keys (browser or server crypto). */
+export function randomToken(length = 24): string {
+  const alphabet = "abcdefghijklmnopqrstuvwxyz0123456789";
+  const bytes = new Uint8Array(length);
+  globalThis.crypto.getRandomValues(bytes);
+  return Array.from(bytes, (b) => alphabet[b % alphabet.length]).join("");
+}
+
+/** Default crankcase tally rows; the engineer edits the list to what actually went in. */
+export const DEFAULT_TALLY_LABELS = ["Spanners and sockets", "Torch / hand lamp", "Rags", "Measuring tools"];

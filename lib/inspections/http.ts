@@ -1,0 +1,66 @@
+import "server-only";
+import type { ZodType } from "zod";
+import { HttpError, parseId } from "@/lib/auth/api";
+import { RecordError } from "./errors";
+import { getInspectionVesselId, getUnitVesselId } from "./queries";
+import { describeIssues } from "./schemas";
+
+/**
+ * Reads a JSON body and parses it with the same schema the form uses. Anything the
+ * client let through is refused with 400, a sentence saying why, and the field's path.
+ */
+export async function readBody<S extends ZodType>(req: Request, schema: S, options: { fieldPrefix?: string } = {}): Promise<S["_output"]> {
+  let body: unknown;
+  try {
+    body = await req.json();
+  } catch {
+    throw new HttpError(400, "The request body is not valid JSON.", { field: "(request)" });
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) {
+    // Field paths are named as the form names them (a draft save's body wraps the draft).
+    const strip = (f: string) => (options.fieldPrefix && f.startsWith(options.fieldPrefix) ? f.slice(options.fieldPrefix.length) : f);
+    const { message, field, fields } = describeIssues(parsed.error);
+    throw new HttpError(400, message.replace(`(field: ${field})`, `(field: ${strip(field)})`), {
+      field: strip(field),
+      fields: Object.fromEntries(Object.entries(fields).map(([k, v]) => [strip(k), v])),
+    });
+  }
+  return parsed.data;
+}
+
+/** vesselOf for routes under /api/inspections/[inspectionId]. */
+export async function vesselOfInspection(_req: Request, params: { inspectionId: string }): Promise<number | null> {
+  const id = Number(params.inspectionId);
+  if (!Number.isInteger(id) || id <= 0) return null;
+  return getInspectionVesselId(id);
+}
+
+/** vesselOf for POST /api/inspections: the unit named in the body. */
+export async function vesselOfUnitInBody(req: Request): Promise<number | null> {
+  let body: { unitId?: unknown };
+  try {
+    body = (await req.clone().json()) as { unitId?: unknown };
+  } catch {
+    throw new HttpError(400, "The request body is not valid JSON.", { field: "(request)" });
+  }
+  const id = body?.unitId;
+  if (typeof id !== "number" || !Number.isInteger(id) || id <= 0) {
+    throw new HttpError(400, "Choose the unit to inspect. (field: unitId)", { field: "unitId" });
+  }
+  return getUnitVesselId(id);
+}
+
+export const inspectionIdOf = (params: { inspectionId: string }) => parseId(params.inspectionId, "Inspection");
+
+/** Turns the mutations' RecordError into the route wrapper's HttpError (same status, message and details). */
+export function mapRecordErrors<A extends unknown[]>(handler: (...args: A) => Promise<Response>): (...args: A) => Promise<Response> {
+  return async (...args: A) => {
+    try {
+      return await handler(...args);
+    } catch (err) {
+      if (err instanceof RecordError) throw new HttpError(err.status, err.message, err.details);
+      throw err;
+    }
+  };
+}
