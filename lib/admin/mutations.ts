@@ -1,4 +1,5 @@
 import "server-only";
+import { recomputeUnits } from "@/lib/analysis/recompute";
 import type { Knex } from "knex";
 import { writeAudit } from "@/lib/audit/mutations";
 import { ActionError } from "@/lib/auth/actions";
@@ -240,6 +241,11 @@ export async function saveProfile(actor: Actor, p: ProfileData, db: Knex = defau
         { actor, action: p.profileId ? "profile.update" : "profile.create", entityType: "engine_profile", entityId: id, detail: { ...row, stations: p.stations, rings: p.rings } },
         trx,
       );
+      if (p.profileId) {
+        // New limits or stations change every band and projection of the engines on this profile.
+        const engineIds = (await trx("main_engines").where({ profile_id: id }).select<{ id: number }[]>("id")).map((e) => e.id);
+        if (engineIds.length) await recomputeUnits(trx, { engineIds });
+      }
       return id;
     });
   } catch (err) {

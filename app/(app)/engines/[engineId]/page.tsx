@@ -3,9 +3,14 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { BandBadge, isBandKey } from "@/components/ui/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
+import { LogHoursForm } from "@/components/hours/log-hours-form";
+import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
 import { getEngine } from "@/lib/fleet/queries";
 import { day, fixed, hours, monthYear } from "@/lib/format";
+import { logRunningHoursAction } from "@/lib/hours/actions";
+import { listRecentHours } from "@/lib/hours/queries";
+import { runningHoursPerDay } from "@/lib/wear/calendar";
 
 export const metadata: Metadata = { title: "Main engine" };
 
@@ -15,6 +20,9 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
   const engine = await getEngine(user, Number(engineId));
   if (!engine) notFound();
   const limit = engine.profile.linerWearLimitMm;
+  const log = await listRecentHours(engine.id, 40);
+  const rate = runningHoursPerDay(log.map((l) => ({ date: l.loggedOn, engineHours: l.engineHours })));
+  const today = new Date().toISOString().slice(0, 10);
   return (
     <>
       <PageHeader
@@ -114,6 +122,43 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
           </tbody>
         </table>
       </div>
+      <section className="mt-8 grid gap-6 md:grid-cols-2" aria-labelledby="hours-log">
+        <div className="min-w-0">
+          <h2 id="hours-log" className="mb-1 text-lg font-semibold">Running-hours log</h2>
+          <p className="mb-3 text-sm text-ink-soft">
+            {rate.kind === "known" ? (
+              <>
+                Averaging <span className="num font-semibold text-ink">{fixed(rate.hoursPerDay, 1)} h a day</span> from {day(rate.fromDate)} to {day(rate.toDate)}; projected dates
+                count forward at this rate.
+              </>
+            ) : (
+              "Too few readings for an average running rate, so projections give liner hours but no dates."
+            )}
+          </p>
+          <table className="w-full text-sm">
+            <thead className="text-left text-xs uppercase tracking-wide text-ink-soft">
+              <tr>
+                <th scope="col" className="py-1.5">Date</th>
+                <th scope="col" className="py-1.5 text-right">Counter</th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-ink-line/70">
+              {log.slice(0, 6).map((l) => (
+                <tr key={l.loggedOn}>
+                  <td className="num py-1.5">{day(l.loggedOn)}</td>
+                  <td className="num py-1.5 text-right">{hours(l.engineHours)} h</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+        {can(user.role, "hoursLog.write") ? (
+          <Card className="p-4">
+            <h3 className="mb-3 font-semibold">Log a counter reading</h3>
+            <LogHoursForm engineId={engine.id} action={logRunningHoursAction} today={today} />
+          </Card>
+        ) : null}
+      </section>
     </>
   );
 }
