@@ -56,7 +56,7 @@ export function ChecklistForm({
 
   return (
     <div className="space-y-5">
-      <SafetyCautions />
+      <SafetyCautions open />
 
       <section aria-labelledby="tally-h">
         <h3 id="tally-h" className="font-semibold">
