@@ -6,10 +6,11 @@ import { WorkflowActions } from "@/components/inspections/workflow-actions";
 import { BandBadge } from "@/components/ui/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
+import { WearTable, wearCellKey } from "@/components/wear/wear-table";
 import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
 import { day, fixed, hours } from "@/lib/format";
-import { cellKey, toWearProfile } from "@/lib/inspections/context";
+import { toWearProfile } from "@/lib/inspections/context";
 import { getInspectionForUser, getStoredUnitSummary, listInspectionAudit } from "@/lib/inspections/queries";
 import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
@@ -53,8 +54,6 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
     { id: String(id), date: h.inspectedOn, engineHours: h.engineHours, linerHours: h.linerHours, gaugeTempC: h.gaugeTempC, linerTempC: h.linerTempC, readings: insp.draft.readings },
     ctx.asFitted ?? undefined,
   );
-  const cells = new Map(analysis.cells.map((c) => [cellKey(c.stationKey, c.axisKey), c]));
-  const readings = new Map(insp.draft.readings.map((r) => [cellKey(r.stationKey, r.axisKey), r]));
   const stationLabel = (key: string | undefined) => profile.stations.find((s) => s.key === key)?.label ?? key ?? "–";
   const open = insp.state === "draft" || insp.state === "returned";
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
@@ -144,66 +143,16 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
 
       <section className="mb-6">
         <h2 className="mb-2 text-lg font-semibold">Liner wear</h2>
-        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-          <table className="w-full min-w-[720px] text-sm">
-            <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
-              <tr>
-                <th className="px-3 py-2" scope="col">Station</th>
-                <th className="px-3 py-2 text-right" scope="col">Depth</th>
-                {profile.axes.map((a) => (
-                  <th key={a.key} className="px-3 py-2 text-right" scope="col">
-                    {a.label}: read / at 20 °C / wear
-                  </th>
-                ))}
-                <th className="px-3 py-2 text-right" scope="col">Ovality</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-ink-line/70">
-              {profile.stations.map((s) => {
-                const ov = analysis.ovality.find((o) => o.stationKey === s.key)?.ovalityMm ?? null;
-                const ovOver = ov !== null && ov >= profile.ovalityLimitMm;
-                return (
-                  <tr key={s.key}>
-                    <th scope="row" className="px-3 py-2 text-left font-medium">
-                      <span className="font-mono">{s.key}</span> {s.label}
-                      {analysis.maxWear?.stationKey === s.key ? <span className="ml-1 text-xs font-semibold">(max wear)</span> : null}
-                    </th>
-                    <td className="num px-3 py-2 text-right">{fixed(s.depthMm, 0)} mm</td>
-                    {profile.axes.map((a) => {
-                      const k = cellKey(s.key, a.key);
-                      const cell = cells.get(k);
-                      const r = readings.get(k);
-                      const over = cell && cell.usable && cell.wearMm >= profile.linerWearLimitMm;
-                      return (
-                        <td key={a.key} className="num px-3 py-2 text-right align-top">
-                          {cell ? (
-                            <>
-                              <span className="text-ink-faint">
-                                {fixed(cell.rawMm, 3)} / {fixed(cell.correctedMm, 3)} /{" "}
-                              </span>
-                              <span className={over ? "font-semibold text-limit" : "font-semibold"}>
-                                {over ? <OverLimitMark /> : null}
-                                {fixed(cell.wearMm, 2)}
-                              </span>
-                              {r?.enteredUnit === "in" ? <span className="block text-xs text-ink-faint">entered in inches</span> : null}
-                              {!cell.usable ? <span className="block text-xs text-caution">implausible, not counted</span> : null}
-                              {r?.warningConfirmed ? (
-                                <span className="block max-w-xs text-xs whitespace-normal text-ink-soft"><CautionMark />confirmed as read: {r.warningConfirmed}</span>
-                              ) : null}
-                            </>
-                          ) : (
-                            <span className="text-ink-faint">not read</span>
-                          )}
-                        </td>
-                      );
-                    })}
-                    <td className={`num px-3 py-2 text-right ${ovOver ? "font-semibold text-limit" : ""}`}>{ov === null ? "–" : <>{ovOver ? <OverLimitMark /> : null}{fixed(ov)}</>}</td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
+        <WearTable
+          stations={profile.stations}
+          axes={profile.axes}
+          cells={analysis.cells}
+          ovality={analysis.ovality}
+          wearLimitMm={profile.linerWearLimitMm}
+          ovalityLimitMm={profile.ovalityLimitMm}
+          maxWearStationKey={analysis.maxWear?.stationKey}
+          notes={new Map(insp.draft.readings.map((r) => [wearCellKey(r.stationKey, r.axisKey), { enteredUnit: r.enteredUnit, warningConfirmed: r.warningConfirmed }]))}
+        />
         <p className="mt-1 text-xs text-ink-faint">
           All figures in mm.{" "}
           {analysis.correction.applied

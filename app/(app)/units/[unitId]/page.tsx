@@ -7,6 +7,7 @@ import { BandBadge, BandIcon } from "@/components/ui/band-badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
+import { WearTable } from "@/components/wear/wear-table";
 import { getUnitAnalysis } from "@/lib/analysis/queries";
 import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
@@ -126,55 +127,15 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
       {latestSeries ? (
         <section className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">Latest gauging, {day(latestSeries.date)}</h2>
-          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-            <table className="w-full min-w-[680px] text-sm">
-              <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
-                <tr>
-                  <th className="px-3 py-2" scope="col">Station</th>
-                  <th className="px-3 py-2 text-right" scope="col">Depth</th>
-                  {profile.axes.map((a) => (
-                    <th key={a.key} className="px-3 py-2 text-right" scope="col">
-                      {a.label}: read / at 20 °C / wear
-                    </th>
-                  ))}
-                  <th className="px-3 py-2 text-right" scope="col">Ovality</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-ink-line/70">
-                {profile.stations.map((st) => {
-                  const ov = latestSeries.ovality.find((o) => o.stationKey === st.key)?.ovalityMm ?? null;
-                  return (
-                    <tr key={st.key}>
-                      <th scope="row" className="px-3 py-2 text-left font-medium">{st.label}</th>
-                      <td className="num px-3 py-2 text-right">{fixed(st.depthMm, 0)} mm</td>
-                      {profile.axes.map((a) => {
-                        const c = latestSeries.cells.find((x) => x.stationKey === st.key && x.axisKey === a.key);
-                        const over = c && c.wearMm >= profile.linerWearLimitMm;
-                        return (
-                          <td key={a.key} className="num px-3 py-2 text-right">
-                            {c ? (
-                              <>
-                                <span className="text-ink-faint">{fixed(c.rawMm, 2)} / {fixed(c.correctedMm, 2)} / </span>
-                                <span className={over ? "inline-flex items-center gap-1 font-semibold text-limit" : "font-semibold"}>
-                                  {over ? <BandIcon band="over_limit" className="h-3.5 w-3.5" /> : null}
-                                  {fixed(c.wearMm, 2)}
-                                  {over ? <span className="sr-only"> (at or over the limit)</span> : null}
-                                </span>
-                                {!c.usable ? <span className="ml-1 text-xs text-caution">(implausible, not used)</span> : null}
-                              </>
-                            ) : (
-                              <span className="text-ink-faint">not read</span>
-                            )}
-                          </td>
-                        );
-                      })}
-                      <td className="num px-3 py-2 text-right">{ov === null ? "–" : `${fixed(ov, 2)}`}</td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
+          <WearTable
+            stations={profile.stations}
+            axes={profile.axes}
+            cells={latestSeries.cells}
+            ovality={latestSeries.ovality}
+            wearLimitMm={profile.linerWearLimitMm}
+            ovalityLimitMm={profile.ovalityLimitMm}
+            maxWearStationKey={summary.maxWearStation}
+          />
           <p className="mt-1 text-xs text-ink-faint">
             All figures in mm. {profile.temperatureCorrection ? "Readings are referred to 20 °C (ISO 1) from the recorded gauge and liner temperatures." : "Temperature correction is off for this engine profile."}{" "}
             Wear is measured from the {profile.wearReference === "nominal" ? `nominal bore of ${fixed(profile.boreMm, 2)} mm` : "liner's as-fitted readings"}.
