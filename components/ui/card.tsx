@@ -1,7 +1,7 @@
 import { cn } from "@/lib/utils";
 
 export function Card({ className, ...props }: React.HTMLAttributes<HTMLDivElement>) {
-  return <div className={cn("rounded-lg border border-ink-line bg-paper-raised", className)} {...props} />;
+  return <div className={cn("rounded-lg border border-ink-line bg-paper-raised print:break-inside-avoid", className)} {...props} />;
 }
 
 export function PageHeader({
