@@ -67,7 +67,7 @@ export function WearTable({
                       {cell ? (
                         <>
                           <span className="text-ink-faint">
-                            {fixed(cell.rawMm, 3)} / {fixed(cell.correctedMm, 3)} /{" "}
+                            {fixed(cell.rawMm, 2)} / {fixed(cell.correctedMm, 2)} /{" "}
                           </span>
                           <span className={over ? "font-semibold text-limit" : "font-semibold"}>
                             {over ? <OverLimitMark /> : null}
