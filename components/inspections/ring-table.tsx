@@ -4,7 +4,7 @@ import type { ContextProfile } from "@/lib/inspections/context";
 import { parseDecimal, type RingEntry } from "@/lib/inspections/form";
 import { RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/schemas";
-import type { RingState } from "@/lib/rings/rings";
+import { normaliseClosedGap, type RingState } from "@/lib/rings/rings";
 import { formatFixed } from "@/lib/units/length";
 import { cn } from "@/lib/utils";
 import { OverLimitMark, CautionMark, OkMark } from "./marks";
@@ -32,7 +32,7 @@ function StateLine({ state, newMin, newMax, limit }: { state: RingState | null; 
   );
 }
 
-export const ringInputId = (position: number, what: "gap" | "groove") => `ring-${position}-${what}`;
+export const ringInputId = (position: number, what: "gap" | "groove" | "linerd") => `ring-${position}-${what}`;
 
 /** Rings by position: closed gap (and where it was measured), groove clearance, renewed, condition — each against the profile. */
 export function RingTable({
@@ -52,7 +52,11 @@ export function RingTable({
         const r = rings[spec.position] ?? { closedGap: "", gapMeasuredIn: "gauge_ring", groove: "", renewed: false, condition: "" };
         const gap = parseDecimal(r.closedGap);
         const groove = parseDecimal(r.groove);
-        const live = ringLive(spec, typeof gap === "number" ? gap : null, typeof groove === "number" ? groove : null);
+        const linerD = r.gapMeasuredIn === "liner_worn" ? parseDecimal(r.gapLinerDiameter ?? "") : null;
+        // A gap read in a worn part of the liner is judged as if in a gauge ring of nominal bore.
+        const referred =
+          typeof gap === "number" && typeof linerD === "number" ? normaliseClosedGap(gap, "liner_worn", linerD - profile.boreMm).gapMm : null;
+        const live = ringLive(spec, referred ?? (typeof gap === "number" ? gap : null), typeof groove === "number" ? groove : null);
         const next = profile.rings[i + 1];
         const focusNext = (e: React.KeyboardEvent<HTMLInputElement>, id: string | null) => {
           if (e.key !== "Enter" || !id) return;
@@ -129,7 +133,33 @@ export function RingTable({
                 ))}
               </div>
               {r.gapMeasuredIn === "liner_worn" ? (
-                <p className="mt-1 text-sm text-ink-soft">A gap measured in a worn part of the liner reads larger than in a gauge ring (by π × the diameter increase there).</p>
+                <div className="mt-2">
+                  <label htmlFor={ringInputId(spec.position, "linerd")} className="block text-sm font-medium text-ink-soft">
+                    Liner diameter where the gap was measured (mm)
+                  </label>
+                  <input
+                    id={ringInputId(spec.position, "linerd")}
+                    type="text"
+                    inputMode="decimal"
+                    autoComplete="off"
+                    readOnly={readOnly}
+                    value={r.gapLinerDiameter ?? ""}
+                    aria-invalid={linerD === "invalid" || undefined}
+                    onChange={(e) => onChange(spec.position, { gapLinerDiameter: e.target.value })}
+                    placeholder={`e.g. ${(profile.boreMm + 1).toFixed(2)}`}
+                    className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution sm:w-1/2"
+                  />
+                  <p className="mt-1 text-sm text-ink-soft">
+                    {referred !== null && typeof gap === "number" && typeof linerD === "number" ? (
+                      <>
+                        Referred to a gauge ring: <span className="num font-semibold text-ink">{referred.toFixed(2)} mm</span> ({gap.toFixed(2)} − π ×{" "}
+                        {(linerD - profile.boreMm).toFixed(2)} mm).
+                      </>
+                    ) : (
+                      "A gap read in a worn part of the liner is larger than in a gauge ring by π × the diameter increase there. Give the diameter to refer it back; without it the gap is judged as read (the safe side)."
+                    )}
+                  </p>
+                </div>
               ) : null}
             </fieldset>
             <div className="mt-3 grid gap-3 sm:grid-cols-[auto_1fr] sm:items-end">

@@ -122,7 +122,7 @@ export async function loadUnitInputs(
           .select("r.inspection_id", "s.station_key", "r.axis_key", "r.diameter_mm"),
         db("ring_readings")
           .whereIn("inspection_id", inspIds)
-          .select("inspection_id", "ring_position", "closed_gap_mm", "gap_measured_in", "groove_clearance_mm", "renewed"),
+          .select("inspection_id", "ring_position", "closed_gap_mm", "gap_measured_in", "gap_liner_diameter_mm", "groove_clearance_mm", "renewed"),
       ])
     : [[], []];
 
@@ -132,7 +132,10 @@ export async function loadUnitInputs(
     if (!list) readingsByInsp.set(r.inspection_id, (list = []));
     list.push({ stationKey: r.station_key, axisKey: r.axis_key, diameterMm: Number(r.diameter_mm) });
   }
-  const ringsByInsp = new Map<number, RingInspection["readings"]>();
+  // The liner diameter where a gap was read in a worn part is kept as read; the increase
+  // over nominal needs the unit's profile, so it is worked out per unit below.
+  type RingRow = RingInspection["readings"][number] & { gapLinerDiameterMm: number | null };
+  const ringsByInsp = new Map<number, RingRow[]>();
   for (const r of rings) {
     let list = ringsByInsp.get(r.inspection_id);
     if (!list) ringsByInsp.set(r.inspection_id, (list = []));
@@ -140,6 +143,7 @@ export async function loadUnitInputs(
       position: r.ring_position,
       closedGapMm: r.closed_gap_mm === null ? null : Number(r.closed_gap_mm),
       gapMeasuredIn: r.gap_measured_in,
+      gapLinerDiameterMm: r.gap_liner_diameter_mm === null ? null : Number(r.gap_liner_diameter_mm),
       grooveClearanceMm: r.groove_clearance_mm === null ? null : Number(r.groove_clearance_mm),
       renewed: !!r.renewed,
     });
@@ -181,7 +185,14 @@ export async function loadUnitInputs(
       profile,
       inspections: linerInspections,
       asFittedReadings: asFitted,
-      ringInspections: all.map((i) => ({ inspectionId: String(i.id), engineHours: Number(i.engine_hours), readings: ringsByInsp.get(i.id) ?? [] })),
+      ringInspections: all.map((i) => ({
+        inspectionId: String(i.id),
+        engineHours: Number(i.engine_hours),
+        readings: (ringsByInsp.get(i.id) ?? []).map(({ gapLinerDiameterMm, ...r }) => ({
+          ...r,
+          linerDiameterIncreaseMm: gapLinerDiameterMm === null ? null : gapLinerDiameterMm - profile.boreMm,
+        })),
+      })),
       hoursLog: logByEngine.get(u.engine_id) ?? [],
       nextOverhaulEngineHours: u.next_overhaul_engine_hours === null ? null : Number(u.next_overhaul_engine_hours),
     };

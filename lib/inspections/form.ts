@@ -11,7 +11,15 @@ import { emptyChecklist } from "./schemas";
  */
 
 export type CellEntry = { text: string; unit: LengthUnit; confirmed: string | null };
-export type RingEntry = { closedGap: string; gapMeasuredIn: RingReadingInput["gapMeasuredIn"]; groove: string; renewed: boolean; condition: string };
+export type RingEntry = {
+  closedGap: string;
+  gapMeasuredIn: RingReadingInput["gapMeasuredIn"];
+  /** Liner diameter where a gap was measured in a worn part of the liner. */
+  gapLinerDiameter?: string;
+  groove: string;
+  renewed: boolean;
+  condition: string;
+};
 export type TallyEntry = { key: string; label: string; countIn: string; countOut: string };
 
 export type FormState = {
@@ -79,6 +87,7 @@ export function fromDraft(draft: InspectionDraft, profile: ContextProfile): Form
     rings[spec.position] = {
       closedGap: str(r?.closedGapMm),
       gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
+      gapLinerDiameter: str(r?.gapLinerDiameterMm),
       groove: str(r?.grooveClearanceMm),
       renewed: r?.renewed ?? false,
       condition: r?.condition ?? "",
@@ -182,6 +191,8 @@ export function toDraft(form: FormState, profile: ContextProfile, fallback: Insp
       position: spec.position,
       closedGapMm: r ? read(`rings.${spec.position}.closedGapMm`, r.closedGap) : null,
       gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
+      gapLinerDiameterMm:
+        r && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameter ? read(`rings.${spec.position}.gapLinerDiameterMm`, r.gapLinerDiameter) : null,
       grooveClearanceMm: r ? read(`rings.${spec.position}.grooveClearanceMm`, r.groove) : null,
       renewed: r?.renewed ?? false,
       condition: r ? text(r.condition) : null,

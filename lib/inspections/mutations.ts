@@ -151,6 +151,7 @@ async function writeDraftRows(trx: Knex.Transaction, id: number, ctx: Inspection
         ring_position: r.position,
         closed_gap_mm: r.closedGapMm,
         gap_measured_in: r.gapMeasuredIn,
+        gap_liner_diameter_mm: r.gapMeasuredIn === "liner_worn" ? (r.gapLinerDiameterMm ?? null) : null,
         groove_clearance_mm: r.grooveClearanceMm,
         renewed: r.renewed,
         condition: r.condition,

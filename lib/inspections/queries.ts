@@ -289,7 +289,7 @@ export async function getInspectionDto(id: number, conn: Conn = db): Promise<Ins
     conn("ring_readings")
       .where({ inspection_id: id })
       .orderBy("ring_position")
-      .select("ring_position", "closed_gap_mm", "gap_measured_in", "groove_clearance_mm", "renewed", "condition"),
+      .select("ring_position", "closed_gap_mm", "gap_measured_in", "gap_liner_diameter_mm", "groove_clearance_mm", "renewed", "condition"),
     conn("checklist_entries")
       .where({ inspection_id: id })
       .orderBy("id")
@@ -321,6 +321,7 @@ export async function getInspectionDto(id: number, conn: Conn = db): Promise<Ins
       position: r.ring_position,
       closedGapMm: num(r.closed_gap_mm),
       gapMeasuredIn: r.gap_measured_in,
+      gapLinerDiameterMm: num(r.gap_liner_diameter_mm),
       grooveClearanceMm: num(r.groove_clearance_mm),
       renewed: !!r.renewed,
       condition: r.condition,

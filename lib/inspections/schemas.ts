@@ -84,6 +84,8 @@ export const ringReadingSchema = z.object({
   position: z.number({ error: "Name the ring position." }).int().min(1).max(LIMITS.rings),
   closedGapMm: num("closed gap", 0, 100, "mm").nullable(),
   gapMeasuredIn: z.enum(GAP_MEASURED_IN, { error: "Say where the gap was measured." }),
+  /** The liner's diameter where a gap was measured in a worn part of the liner. */
+  gapLinerDiameterMm: num("liner diameter where the gap was measured", 1, 5000, "mm").nullable().optional(),
   grooveClearanceMm: num("groove clearance", 0, 20, "mm").nullable(),
   renewed: z.boolean({ error: "Say whether the ring was renewed." }),
   condition: optionalText("ring condition", 500),

@@ -379,3 +379,27 @@ describe("reading", () => {
     expect((await call("engineer", getRoute, "GET", `/api/inspections/999999`, undefined, 999999)).status).toBe(404);
   });
 });
+
+describe("a closed gap measured in a worn part of the liner", () => {
+  it("keeps the liner diameter there and judges the gap as in a gauge ring (gap − π × diameter increase)", async () => {
+    // [derived] a ring in a bore Δd larger opens by π·Δd, so the gauge-ring gap is the reading less π·Δd.
+    const unitId = await freshUnit();
+    const created = await createDraft(unitId);
+    const id = created.body.id as number;
+    const draft = completeDraft(created.ctx, { inspectedOn: daysAgo(0), engineHours: created.sent.engineHours, wearMm: 0.4 });
+    const spec = created.ctx.profile.rings[0];
+    // Read 1.2 mm over the limit in a part of the liner worn 0.5 mm: in a gauge ring it is 1.2 − π·0.5 ≈ −0.37 mm from the limit.
+    const bore = created.ctx.profile.boreMm;
+    draft.rings[0] = { ...draft.rings[0], closedGapMm: spec.gapLimitMm + 1.2, gapMeasuredIn: "liner_worn", gapLinerDiameterMm: bore + 0.5 };
+    expect((await put(id, 1, draft)).status).toBe(200);
+    const saved = await get(id);
+    expect(saved.draft.rings[0]).toMatchObject({ gapMeasuredIn: "liner_worn", gapLinerDiameterMm: bore + 0.5 });
+    expect((await call("engineer", submitRoute, "POST", `/api/inspections/${id}/submit`, {}, id)).status).toBe(200);
+    expect((await call("chief", approveRoute, "POST", `/api/inspections/${id}/approve`, {}, id)).status).toBe(200);
+    const row = await db("unit_analysis").where({ unit_id: unitId }).first("summary");
+    const summary = typeof row.summary === "string" ? JSON.parse(row.summary) : row.summary;
+    const top = summary.rings.find((r: { position: number }) => r.position === spec.position);
+    expect(top.gapMm).toBeCloseTo(spec.gapLimitMm + 1.2 - Math.PI * 0.5, 2);
+    expect(top.overLimit).toBe(false);
+  });
+});

@@ -15,6 +15,7 @@ import { getInspectionForUser, getStoredUnitSummary, listInspectionAudit } from 
 import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseInspection } from "@/lib/wear/inspection";
+import { normaliseClosedGap } from "@/lib/rings/rings";
 import { OverLimitMark, CautionMark } from "@/components/inspections/marks";
 
 export const metadata: Metadata = { title: "Inspection" };
@@ -181,7 +182,11 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <tbody className="divide-y divide-ink-line/70">
               {profile.rings.map((spec) => {
                 const r = insp.draft.rings.find((x) => x.position === spec.position);
-                const live = ringLive(spec, r?.closedGapMm ?? null, r?.grooveClearanceMm ?? null);
+                const referred =
+                  r?.closedGapMm != null && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameterMm != null
+                    ? normaliseClosedGap(r.closedGapMm, "liner_worn", r.gapLinerDiameterMm - profile.boreMm).gapMm
+                    : null;
+                const live = ringLive(spec, referred ?? r?.closedGapMm ?? null, r?.grooveClearanceMm ?? null);
                 const tone = (s: typeof live.gap) => (s === "at_or_over_limit" ? "font-semibold text-limit" : s === "below_new_range" ? "text-caution" : "");
                 return (
                   <tr key={spec.position}>
@@ -190,7 +195,14 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                       {r?.closedGapMm != null ? <span className={tone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
                       {live.gap ? <span className="block text-xs text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
                     </td>
-                    <td className="px-3 py-2">{r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}</td>
+                    <td className="px-3 py-2">
+                      {r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
+                      {referred !== null ? (
+                        <span className="num block text-xs text-ink-faint">
+                          at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring
+                        </span>
+                      ) : null}
+                    </td>
                     <td className="num px-3 py-2 text-right">
                       {r?.grooveClearanceMm != null ? <span className={tone(live.groove)}>{live.groove === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.grooveClearanceMm)} mm</span> : "–"}
                       {live.groove ? <span className="block text-xs text-ink-faint">{RING_STATE_TEXT[live.groove]} (limit {fixed(spec.grooveLimitMm)} mm)</span> : null}
