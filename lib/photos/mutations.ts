@@ -56,6 +56,8 @@ export async function createPhotoSlot(
     return { fileId: fileId as number, key };
   });
   const { url, headers } = await presignUpload(key, contentType);
+  // Housekeeping that must never block a new photo.
+  void purgeAbandonedUploads(db).catch((err) => console.error("purging abandoned uploads failed", err));
   return { fileId, uploadUrl: url, headers };
 }
 
@@ -214,4 +216,22 @@ export async function deletePhoto(actor: Actor, inspectionId: number, photoId: n
   });
   for (const k of keys) await removeObject(k);
   return { deletedObjects: keys.length };
+}
+
+/** A presigned upload URL is good for minutes; a slot still pending after this was abandoned. */
+const ABANDONED_AFTER_MS = 24 * 3_600_000;
+
+/**
+ * Removes uploads that were started but never completed (the tab closed, the network
+ * dropped for good): the object, if any, leaves the store and the ledger row is marked
+ * deleted. Runs whenever a new slot is handed out, so no job scheduler is needed.
+ */
+export async function purgeAbandonedUploads(db: Knex = defaultDb, now = Date.now()): Promise<number> {
+  const stale = await db("stored_files")
+    .where({ status: "pending" })
+    .where("created_at", "<", new Date(now - ABANDONED_AFTER_MS))
+    .limit(100)
+    .select<{ id: number; object_key: string }[]>("id", "object_key");
+  for (const f of stale) await discard(db, f.id, f.object_key);
+  return stale.length;
 }

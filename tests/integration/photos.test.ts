@@ -175,3 +175,20 @@ describe("photos", () => {
     expect(res.body.details.field).toBe("contentType");
   });
 });
+
+describe("abandoned uploads", () => {
+  it("removes a slot left pending for over a day, object and all, and keeps a fresh one", async () => {
+    const { PutObjectCommand } = await import("@aws-sdk/client-s3");
+    const { purgeAbandonedUploads } = await import("@/lib/photos/mutations");
+    const oldKey = `inspections/abandoned/${Date.now()}-old`;
+    const newKey = `inspections/abandoned/${Date.now()}-new`;
+    for (const key of [oldKey, newKey]) await s3.send(new PutObjectCommand({ Bucket: bucket, Key: key, Body: "x", ContentType: "image/png" }));
+    const [oldId] = await db("stored_files").insert({ object_key: oldKey, kind: "photo", content_type: "image/png", size_bytes: 1, status: "pending", created_at: new Date(Date.now() - 25 * 3_600_000) });
+    const [newId] = await db("stored_files").insert({ object_key: newKey, kind: "photo", content_type: "image/png", size_bytes: 1, status: "pending" });
+    expect(await purgeAbandonedUploads(db)).toBeGreaterThanOrEqual(1);
+    expect(await db("stored_files").where({ id: oldId }).first("status")).toEqual({ status: "deleted" });
+    expect(await exists(oldKey)).toBe(false);
+    expect(await db("stored_files").where({ id: newId }).first("status")).toEqual({ status: "pending" });
+    expect(await exists(newKey)).toBe(true);
+  });
+});
