@@ -2,8 +2,9 @@
  * The demo scenario generator (fixtures/demo). All of this data is INVENTED for the demo:
  * company, ships, IMO numbers, engine designs, serials and people.
  * Check values: IMO check digit rule [src] IMO Resolution A.1078(28); wear limit about
- * 0.6 % of bore, normal wear 0.025–0.05 mm/1000 h, abnormal above 0.1 mm/1000 h [src]
- * (see /work/shared/domain-facts.md); temperature correction [derived].
+ * 0.6 % of bore, normal wear 0.025–0.05 mm/1000 h [src] BrightHub Engineering articles on
+ * liner wear, abnormal above 0.1 mm/1000 h [src] marineengineeringonline.com report on
+ * abnormal liner wear; temperature correction [derived].
  */
 import { describe, expect, it } from "vitest";
 import { parseImoNumber } from "@/lib/units/imo";
