@@ -1,9 +1,9 @@
 import "server-only";
+import { loadProfiles } from "@/lib/analysis/load";
 import type { Knex } from "knex";
 import type { UnitSummary } from "@/lib/analysis/compute";
 import type { CurrentUser } from "@/lib/auth/session";
 import { db } from "@/lib/db/knex";
-import type { StationRole } from "@/lib/wear/types";
 import type { ContextProfile, InspectionContext, PreviousInspection } from "./context";
 import type { ChecklistInput, InspectionDraft, InspectionDto, InspectionState, PhotoDto } from "./schemas";
 import { emptyChecklist } from "./schemas";
@@ -33,65 +33,7 @@ export async function getInspectionVesselId(inspectionId: number, conn: Conn = d
 }
 
 async function loadProfile(conn: Conn, profileId: number): Promise<ContextProfile | null> {
-  const p = await conn("engine_profiles")
-    .where({ id: profileId })
-    .first(
-      "id",
-      "name",
-      "designation",
-      "bore_mm",
-      "liner_wear_limit_mm",
-      "ovality_limit_mm",
-      "wear_reference",
-      "temperature_correction",
-      "alpha_liner_per_k",
-      "alpha_gauge_per_k",
-      "running_in_hours",
-      "min_points_for_projection",
-      "axis_a_key",
-      "axis_a_label",
-      "axis_b_key",
-      "axis_b_label",
-      "rod_nut_pressure_bar",
-    );
-  if (!p) return null;
-  const [stations, rings] = await Promise.all([
-    conn("profile_stations").where({ profile_id: profileId }).orderBy("position").select("id", "station_key", "label", "depth_mm", "role"),
-    conn("profile_rings")
-      .where({ profile_id: profileId })
-      .orderBy("position")
-      .select("position", "label", "gap_new_min_mm", "gap_new_max_mm", "gap_limit_mm", "groove_new_min_mm", "groove_new_max_mm", "groove_limit_mm"),
-  ]);
-  return {
-    id: p.id,
-    name: p.name,
-    designation: p.designation,
-    boreMm: Number(p.bore_mm),
-    linerWearLimitMm: Number(p.liner_wear_limit_mm),
-    ovalityLimitMm: Number(p.ovality_limit_mm),
-    wearReference: p.wear_reference,
-    temperatureCorrection: !!p.temperature_correction,
-    alphaLinerPerK: Number(p.alpha_liner_per_k),
-    alphaGaugePerK: Number(p.alpha_gauge_per_k),
-    runningInHours: Number(p.running_in_hours),
-    minPointsForProjection: Number(p.min_points_for_projection),
-    axes: [
-      { key: p.axis_a_key, label: p.axis_a_label },
-      { key: p.axis_b_key, label: p.axis_b_label },
-    ],
-    stations: stations.map((s) => ({ id: s.id, key: s.station_key, label: s.label, depthMm: Number(s.depth_mm), role: s.role as StationRole })),
-    rings: rings.map((r) => ({
-      position: r.position,
-      label: r.label,
-      gapNewMinMm: Number(r.gap_new_min_mm),
-      gapNewMaxMm: Number(r.gap_new_max_mm),
-      gapLimitMm: Number(r.gap_limit_mm),
-      grooveNewMinMm: Number(r.groove_new_min_mm),
-      grooveNewMaxMm: Number(r.groove_new_max_mm),
-      grooveLimitMm: Number(r.groove_limit_mm),
-    })),
-    rodNutPressureBar: num(p.rod_nut_pressure_bar),
-  };
+  return (await loadProfiles(conn, [profileId])).get(profileId) ?? null;
 }
 
 async function readingsOf(conn: Conn, inspectionId: number) {
