@@ -56,7 +56,7 @@ function withDates(p: Projection, latest: { linerHours: number; date: string } |
 export function computeUnitAnalysis(input: UnitInput): UnitAnalysis {
   const liner = analyseLiner(input.profile, input.inspections, { asFittedReadings: input.asFittedReadings });
   const latest = liner.latest;
-  const rate = runningHoursPerDay(input.hoursLog);
+  const rate = rateOf(input.hoursLog);
   const ringCurrent = latestRingInspection(input.ringInspections);
   const hoursToNext =
     input.nextOverhaulEngineHours !== null && latest ? input.nextOverhaulEngineHours - latest.engineHours : null;
@@ -103,6 +103,14 @@ export function computeUnitAnalysis(input: UnitInput): UnitAnalysis {
     issues: liner.issues.map((i) => i.message),
   };
   return { summary, liner, rings };
+}
+
+// Units of one engine share one log array; its running rate is worked out once.
+const rateCache = new WeakMap<readonly RunningHoursEntry[], RunningRate>();
+function rateOf(log: readonly RunningHoursEntry[]): RunningRate {
+  let rate = rateCache.get(log);
+  if (!rate) rateCache.set(log, (rate = runningHoursPerDay(log)));
+  return rate;
 }
 
 function latestRingInspection(list: RingInspection[]): RingInspection | null {

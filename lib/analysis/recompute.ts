@@ -25,9 +25,14 @@ function toRow(input: UnitInput) {
     limit_on_earliest: limit?.earliest ?? null,
     limit_on_latest: limit?.latest ?? null,
     last_inspected_on: summary.lastInspectedOn,
-    summary: JSON.stringify(summary),
+    summary: JSON.stringify(summary, roundForStorage),
     computed_at: new Date(),
   };
+}
+
+/** Six significant digits are finer than any gauge; full float noise only bloats the row. */
+function roundForStorage(_key: string, value: unknown): unknown {
+  return typeof value === "number" && !Number.isInteger(value) ? Number(value.toPrecision(6)) : value;
 }
 
 function round(v: number | null, dp: number): number | null {
@@ -37,8 +42,8 @@ function round(v: number | null, dp: number): number | null {
 }
 
 async function upsert(db: Knex | Knex.Transaction, rows: ReturnType<typeof toRow>[]) {
-  for (let i = 0; i < rows.length; i += 500) {
-    const chunk = rows.slice(i, i + 500);
+  for (let i = 0; i < rows.length; i += 1000) {
+    const chunk = rows.slice(i, i + 1000);
     await db("unit_analysis")
       .insert(chunk)
       .onConflict("unit_id")
@@ -75,11 +80,21 @@ export async function recomputeAllUnits(db: Knex, options: { enginesPerBatch?: n
   const batch = options.enginesPerBatch ?? 40;
   const profiles: Map<number, ProfileRow> = await loadProfiles(db);
   const engineIds = (await db("main_engines").orderBy("id").select("id")).map((r) => r.id as number);
+  const load = (i: number) => loadUnitInputs(db, { engineIds: engineIds.slice(i, i + batch) }, profiles);
   let n = 0;
-  for (let i = 0; i < engineIds.length; i += batch) {
-    const { units } = await loadUnitInputs(db, { engineIds: engineIds.slice(i, i + batch) }, profiles);
-    await upsert(db, units.map(toRow));
+  // Read the next batch while this one is computed and written, so the database and the
+  // computation work side by side instead of taking turns.
+  // One write stays in flight too, bounded to one batch.
+  let next = engineIds.length ? load(0) : null;
+  let writing: Promise<void> = Promise.resolve();
+  for (let i = 0; next; i += batch) {
+    const { units } = await next;
+    next = i + batch < engineIds.length ? load(i + batch) : null;
+    const rows = units.map(toRow);
+    await writing;
+    writing = upsert(db, rows);
     n += units.length;
   }
+  await writing;
   return n;
 }

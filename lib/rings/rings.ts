@@ -159,7 +159,8 @@ export function analyseRings(
             if (!validMm(c.r.closedGapMm)) return [];
             return [{ x: c.hours, y: normaliseClosedGap(c.r.closedGapMm, c.r.gapMeasuredIn, c.r.linerDiameterIncreaseMm).gapMm }];
           });
-          result.gap = { ...measure(gapMm, spec.gapNewMinMm, spec.gapNewMaxMm, spec.gapLimitMm, series), measuredMm: reading.closedGapMm, basis };
+          const m = measure(gapMm, spec.gapNewMinMm, spec.gapNewMaxMm, spec.gapLimitMm, series);
+          result.gap = { valueMm: m.valueMm, state: m.state, limitMm: m.limitMm, growthMmPer1000h: m.growthMmPer1000h, hoursToLimit: m.hoursToLimit, measuredMm: reading.closedGapMm, basis };
         }
       }
       if (reading.grooveClearanceMm != null) {

@@ -117,8 +117,19 @@ export function studentTQuantile(p: number, df: number): number | null {
   return p > 0.5 ? t : -t;
 }
 
-/** The two-sided critical value t(1 − α/2, df) for a confidence level such as 0.95. */
+const criticalCache = new Map<string, number | null>();
+
+/**
+ * The two-sided critical value t(1 − α/2, df) for a confidence level such as 0.95.
+ * Memoised: a fleet recompute asks for the same few (confidence, df) pairs thousands of
+ * times, and each answer costs a bisection on the incomplete beta function.
+ */
 export function tCritical(confidence: number, df: number): number | null {
   if (!(confidence > 0 && confidence < 1)) return null;
-  return studentTQuantile(1 - (1 - confidence) / 2, df);
+  const key = `${confidence}|${df}`;
+  const cached = criticalCache.get(key);
+  if (cached !== undefined) return cached;
+  const t = studentTQuantile(1 - (1 - confidence) / 2, df);
+  if (criticalCache.size < 10_000) criticalCache.set(key, t);
+  return t;
 }

@@ -22,9 +22,26 @@ export function formatRunningHours(hours: number): string {
 
 /** Epoch milliseconds of a strict ISO calendar date (yyyy-mm-dd, UTC midnight), or null. */
 export function parseIsoDate(text: string): number | null {
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(text)) return null;
-  const ms = Date.parse(`${text}T00:00:00Z`);
-  return Number.isFinite(ms) && new Date(ms).toISOString().slice(0, 10) === text ? ms : null;
+  // Hand-parsed: a fleet recompute reads every running-hours entry of every engine, and
+  // Date.parse plus a round trip through toISOString dominated that work.
+  if (typeof text !== "string" || text.length !== 10 || text.charCodeAt(4) !== 45 || text.charCodeAt(7) !== 45) return null;
+  const y = digits(text, 0, 4);
+  const m = digits(text, 5, 7);
+  const d = digits(text, 8, 10);
+  if (y === null || m === null || d === null || m < 1 || m > 12 || d < 1) return null;
+  const ms = Date.UTC(y, m - 1, d);
+  // Date.UTC rolls 31 April over into May; a real calendar day keeps its month.
+  return new Date(ms).getUTCMonth() === m - 1 ? ms : null;
+}
+
+function digits(text: string, from: number, to: number): number | null {
+  let n = 0;
+  for (let i = from; i < to; i++) {
+    const c = text.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return null;
+    n = n * 10 + c;
+  }
+  return n;
 }
 
 /** A date a (possibly fractional) number of days after an ISO date, rounded to the nearest day. */

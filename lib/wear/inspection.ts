@@ -52,6 +52,19 @@ export type InspectionAnalysis = {
 
 const cellKey = (stationKey: string, axisKey: string) => `${stationKey}\u0000${axisKey}`;
 
+type ProfileLookups = { stations: Map<string, WearProfile["stations"][number]>; axisKeys: Set<string> };
+const lookups = new WeakMap<WearProfile, ProfileLookups>();
+
+/** Station and direction look-ups, built once per profile object rather than per inspection. */
+function lookupsOf(profile: WearProfile): ProfileLookups {
+  let l = lookups.get(profile);
+  if (!l) {
+    l = { stations: new Map(profile.stations.map((s) => [s.key, s])), axisKeys: new Set(profile.axes.map((a) => a.key)) };
+    lookups.set(profile, l);
+  }
+  return l;
+}
+
 const CORRECTION_REASON: Record<Exclude<TemperatureCorrection, { applied: true }>["reason"], string | null> = {
   disabled: null,
   missing_temperature: "Gauge or liner temperature not recorded: readings are used as read, without correction to 20 °C.",
@@ -90,8 +103,7 @@ export function analyseInspection(profile: WearProfile, inspection: Inspection, 
     issues.push({ kind: "temperature_not_applied", message: CORRECTION_REASON[correction.reason]! });
   }
 
-  const stations = new Map(profile.stations.map((s) => [s.key, s]));
-  const axisKeys = new Set(profile.axes.map((a) => a.key));
+  const { stations, axisKeys } = lookupsOf(profile);
   const asFitted = new Map<string, number>();
   for (const r of asFittedReadings ?? []) {
     if (Number.isFinite(r.diameterMm) && r.diameterMm > 0) asFitted.set(cellKey(r.stationKey, r.axisKey), r.diameterMm);
@@ -130,7 +142,7 @@ export function analyseInspection(profile: WearProfile, inspection: Inspection, 
     } else if (nominal === "far_above_nominal") {
       issues.push({ kind: "far_above_nominal", message: `${station.label}: ${mm(correctedMm)} is far over the nominal bore, likely a typing error; left out of the maxima.`, ...where });
     }
-    cells.set(key, { ...where, rawMm: r.diameterMm, correctedMm, wearMm, usable: nominal === "ok" });
+    cells.set(key, { stationKey: r.stationKey, axisKey: r.axisKey, rawMm: r.diameterMm, correctedMm, wearMm, usable: nominal === "ok" });
   }
 
   const ovality: StationOvality[] = [];

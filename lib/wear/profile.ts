@@ -7,6 +7,18 @@ import { DEFAULT_MIN_POINTS_FOR_PROJECTION } from "./types";
  * by an admin from the maker's manual, so they are checked rather than trusted.
  */
 export function checkProfile(profile: WearProfile): string[] {
+  const known = checked.get(profile);
+  if (known) return known;
+  const problems = findProblems(profile);
+  checked.set(profile, problems);
+  return problems;
+}
+
+// Profiles are plain data loaded once and shared by every unit of an engine, so the check
+// is remembered per profile object (a fleet recompute would otherwise repeat it per reading set).
+const checked = new WeakMap<WearProfile, string[]>();
+
+function findProblems(profile: WearProfile): string[] {
   const problems: string[] = [];
   const positive = (v: number) => Number.isFinite(v) && v > 0;
   if (!positive(profile.boreMm)) problems.push("The profile has no valid nominal bore.");
