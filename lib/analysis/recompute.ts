@@ -74,9 +74,11 @@ export async function recomputeUnits(db: Knex | Knex.Transaction, filter: { unit
 
 /**
  * Recomputes every unit of the fleet, engine batch by engine batch, so memory stays
- * bounded on a large fleet. Returns the number of units.
+ * bounded on a large fleet. Returns the number of units. `store: false` computes without
+ * writing (the benchmark times the computation and the storing apart).
  */
-export async function recomputeAllUnits(db: Knex, options: { enginesPerBatch?: number } = {}): Promise<number> {
+export async function recomputeAllUnits(db: Knex, options: { enginesPerBatch?: number; store?: boolean } = {}): Promise<number> {
+  const store = options.store ?? true;
   const batch = options.enginesPerBatch ?? 40;
   const profiles: Map<number, ProfileRow> = await loadProfiles(db);
   const engineIds = (await db("main_engines").orderBy("id").select("id")).map((r) => r.id as number);
@@ -92,7 +94,7 @@ export async function recomputeAllUnits(db: Knex, options: { enginesPerBatch?: n
     next = i + batch < engineIds.length ? load(i + batch) : null;
     const rows = units.map(toRow);
     await writing;
-    writing = upsert(db, rows);
+    if (store) writing = upsert(db, rows);
     n += units.length;
   }
   await writing;
