@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { BandBadge, isBandKey } from "@/components/ui/band-badge";
+import { BandBadge, isBandKey } from "@/components/wear/band-badge";
 import { Card } from "@/components/ui/card";
 import { day, fixed, monthYear } from "@/lib/format";
 import type { HomeEngine } from "@/lib/home/queries";

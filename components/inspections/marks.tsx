@@ -1,4 +1,4 @@
-import { BandIcon } from "@/components/ui/band-badge";
+import { BandIcon } from "@/components/wear/band-badge";
 
 /*
  * The same shapes the status bands use, inline beside a figure, so a value at a limit is

@@ -1,4 +1,4 @@
-import { BandIcon } from "@/components/ui/band-badge";
+import { BandIcon } from "@/components/wear/band-badge";
 import type { ProjectionSummary } from "@/lib/analysis/compute";
 import { day, fixed, hours, monthYear } from "@/lib/format";
 

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { BandBadge, isBandKey, type BandKey } from "@/components/ui/band-badge";
+import { BandBadge, isBandKey, type BandKey } from "@/components/wear/band-badge";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requirePermission } from "@/lib/auth/session";
 import { listFleet } from "@/lib/fleet/queries";

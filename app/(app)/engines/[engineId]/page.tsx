@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { BandBadge, isBandKey } from "@/components/ui/band-badge";
+import { BandBadge, isBandKey } from "@/components/wear/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { LogHoursForm } from "@/components/hours/log-hours-form";
 import { can } from "@/lib/auth/permissions";

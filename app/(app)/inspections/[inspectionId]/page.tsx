@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PhotoPanel } from "@/components/inspections/photo-panel";
 import { WorkflowActions } from "@/components/inspections/workflow-actions";
-import { BandBadge } from "@/components/ui/band-badge";
+import { BandBadge } from "@/components/wear/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
 import { WearTable, wearCellKey } from "@/components/wear/wear-table";

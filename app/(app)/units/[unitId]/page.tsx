@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ProfileChart } from "@/components/charts/profile-chart";
 import { TrendChart } from "@/components/charts/trend-chart";
-import { BandBadge, BandIcon } from "@/components/ui/band-badge";
+import { BandBadge, BandIcon } from "@/components/wear/band-badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";

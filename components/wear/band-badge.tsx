@@ -1,14 +1,9 @@
 import { cn } from "@/lib/utils";
+import { BAND_LABELS, type BandKey } from "@/lib/wear/bands";
 
-export type BandKey = "over_limit" | "renew_before_next" | "watch" | "steady" | "unknown";
+// The band keys and their words live with the band rules in lib/wear/bands.ts.
 
-export const BAND_LABELS: Record<BandKey, string> = {
-  over_limit: "Over limit",
-  renew_before_next: "Renew before next overhaul",
-  watch: "Watch",
-  steady: "Steady",
-  unknown: "Too few readings",
-};
+export { BAND_LABELS, type BandKey };
 
 const styles: Record<BandKey, string> = {
   over_limit: "bg-limit text-white border-limit",
