@@ -72,16 +72,16 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
         ))}
       </ul>
       <div className="hidden overflow-x-auto rounded-lg border border-ink-line bg-paper-raised md:block">
-        <table className="w-full min-w-[760px] text-sm">
+        <table className="w-full min-w-[640px] text-sm">
           <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
             <tr>
               <th scope="col" className="px-3 py-2">Unit</th>
               <th scope="col" className="px-3 py-2">Status</th>
-              <th scope="col" className="px-3 py-2">Liner</th>
+              <th scope="col" className="hidden px-3 py-2 lg:table-cell">Liner</th>
               <th scope="col" className="px-3 py-2 text-right">Liner hours</th>
               <th scope="col" className="px-3 py-2 text-right">Max wear</th>
               <th scope="col" className="px-3 py-2 text-right">Ovality</th>
-              <th scope="col" className="px-3 py-2 text-right">Rate</th>
+              <th scope="col" className="px-3 py-2 text-right">Rate, <span className="normal-case">mm/1000 h</span></th>
               <th scope="col" className="px-3 py-2">Wear limit reached</th>
               <th scope="col" className="px-3 py-2">Last gauged</th>
             </tr>
@@ -95,13 +95,13 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
                 <td className="px-3 py-2.5">
                   {u.band && isBandKey(u.band) ? <BandBadge band={u.band} /> : <span className="text-ink-faint">Not analysed</span>}
                 </td>
-                <td className="whitespace-nowrap px-3 py-2.5 font-mono text-xs">{u.linerSerial ?? "–"}</td>
+                <td className="hidden whitespace-nowrap px-3 py-2.5 font-mono text-xs lg:table-cell">{u.linerSerial ?? "–"}</td>
                 <td className="num px-3 py-2.5 text-right">{hours(u.linerHours)} h</td>
                 <td className="num px-3 py-2.5 text-right">
                   {fixed(u.maxWearMm)} <span className="text-ink-faint">/ {fixed(limit)} mm</span>
                 </td>
                 <td className="num px-3 py-2.5 text-right">{fixed(u.maxOvalityMm)} mm</td>
-                <td className="num px-3 py-2.5 text-right">{fixed(u.wearRate, 3)} <span className="text-ink-faint">mm/1000 h</span></td>
+                <td className="num px-3 py-2.5 text-right">{fixed(u.wearRate, 3)}</td>
                 <td className="num px-3 py-2.5">
                   {u.limitOn ? (
                     <>
