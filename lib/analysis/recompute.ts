@@ -25,14 +25,27 @@ function toRow(input: UnitInput) {
     limit_on_earliest: limit?.earliest ?? null,
     limit_on_latest: limit?.latest ?? null,
     last_inspected_on: summary.lastInspectedOn,
-    summary: JSON.stringify(summary, roundForStorage),
+    summary: JSON.stringify(roundForStorage(summary)),
     computed_at: new Date(),
   };
 }
 
-/** Six significant digits are finer than any gauge; full float noise only bloats the row. */
-function roundForStorage(_key: string, value: unknown): unknown {
-  return typeof value === "number" && !Number.isInteger(value) ? Number(value.toPrecision(6)) : value;
+/**
+ * A copy with every fraction cut to six significant digits, finer than any gauge; full float
+ * noise only bloats the row. A plain walk, because a JSON.stringify replacer is called for
+ * every key and was most of the cost of storing a summary.
+ */
+function roundForStorage(value: unknown): unknown {
+  if (typeof value === "number") return Number.isInteger(value) || !Number.isFinite(value) ? value : Number(value.toPrecision(6));
+  if (value === null || typeof value !== "object") return value;
+  if (Array.isArray(value)) {
+    const out = new Array(value.length);
+    for (let i = 0; i < value.length; i++) out[i] = roundForStorage(value[i]);
+    return out;
+  }
+  const out: Record<string, unknown> = {};
+  for (const key in value) out[key] = roundForStorage((value as Record<string, unknown>)[key]);
+  return out;
 }
 
 function round(v: number | null, dp: number): number | null {

@@ -83,6 +83,11 @@ export function ringState(valueMm: number, newMinMm: number, newMaxMm: number, l
   return "worn";
 }
 
+function readingAt(inspection: RingInspection, position: number): RingReading | undefined {
+  for (const r of inspection.readings) if (r.position === position) return r;
+  return undefined;
+}
+
 const validMm = (v: number | null | undefined): v is number => v != null && Number.isFinite(v) && v >= 0;
 
 function measure(valueMm: number, newMin: number, newMax: number, limit: number, series: { x: number; y: number }[]): RingMeasure {
@@ -133,15 +138,17 @@ export function analyseRings(
         issues.push({ kind: "not_measured", position: spec.position, message: `Ring ${spec.position} was not measured.` });
         return result;
       }
-      // The same ring set: from the last renewal up to this inspection.
-      const chain = [
-        ...earlier.flatMap((h) => {
-          const r = h.readings.find((x) => x.position === spec.position);
-          return r ? [{ hours: h.engineHours, r }] : [];
-        }),
-        { hours: current.engineHours, r: reading },
-      ];
-      const since = chain.slice(Math.max(0, chain.findLastIndex((c) => c.r.renewed)));
+      // The same ring set: from the last renewal up to this inspection (built by hand: this
+      // runs for every ring of every unit in a fleet recompute).
+      const since: { hours: number; r: RingReading }[] = [];
+      for (const h of earlier) {
+        const r = readingAt(h, spec.position);
+        if (!r) continue;
+        if (r.renewed) since.length = 0;
+        since.push({ hours: h.engineHours, r });
+      }
+      if (reading.renewed) since.length = 0;
+      since.push({ hours: current.engineHours, r: reading });
 
       if (reading.closedGapMm != null) {
         if (!validMm(reading.closedGapMm) || (reading.linerDiameterIncreaseMm != null && !Number.isFinite(reading.linerDiameterIncreaseMm))) {
@@ -155,10 +162,10 @@ export function analyseRings(
               message: `Ring ${spec.position}: gap measured in a worn part of the liner without the liner diameter there, so it is used as measured and overstates wear.`,
             });
           }
-          const series = since.flatMap((c) => {
-            if (!validMm(c.r.closedGapMm)) return [];
-            return [{ x: c.hours, y: normaliseClosedGap(c.r.closedGapMm, c.r.gapMeasuredIn, c.r.linerDiameterIncreaseMm).gapMm }];
-          });
+          const series: { x: number; y: number }[] = [];
+          for (const c of since) {
+            if (validMm(c.r.closedGapMm)) series.push({ x: c.hours, y: normaliseClosedGap(c.r.closedGapMm, c.r.gapMeasuredIn, c.r.linerDiameterIncreaseMm).gapMm });
+          }
           const m = measure(gapMm, spec.gapNewMinMm, spec.gapNewMaxMm, spec.gapLimitMm, series);
           result.gap = { valueMm: m.valueMm, state: m.state, limitMm: m.limitMm, growthMmPer1000h: m.growthMmPer1000h, hoursToLimit: m.hoursToLimit, measuredMm: reading.closedGapMm, basis };
         }
@@ -167,7 +174,8 @@ export function analyseRings(
         if (!validMm(reading.grooveClearanceMm)) {
           issues.push({ kind: "invalid_value", position: spec.position, message: `Ring ${spec.position}: the groove clearance is not a valid length.` });
         } else {
-          const series = since.flatMap((c) => (validMm(c.r.grooveClearanceMm) ? [{ x: c.hours, y: c.r.grooveClearanceMm }] : []));
+          const series: { x: number; y: number }[] = [];
+          for (const c of since) if (validMm(c.r.grooveClearanceMm)) series.push({ x: c.hours, y: c.r.grooveClearanceMm });
           result.groove = measure(reading.grooveClearanceMm, spec.grooveNewMinMm, spec.grooveNewMaxMm, spec.grooveLimitMm, series);
         }
       }

@@ -23,6 +23,10 @@ export function correctTo20C(readingMm: number, alphaGaugePerK: number, gaugeTem
   );
 }
 
+const plausible = (t: number) => Number.isFinite(t) && t >= PLAUSIBLE_TEMPERATURE_C.min && t <= PLAUSIBLE_TEMPERATURE_C.max;
+// Engineering metals expand by about 1e-5 per kelvin; anything near 1e-3 is a units slip.
+const alphaOk = (a: number) => Number.isFinite(a) && a >= 0 && a < 1e-4;
+
 /**
  * The multiplier that refers this inspection's readings to 20 °C, or a reason it is not applied
  * (correction switched off in the profile, a temperature not recorded or implausible, or an
@@ -36,10 +40,7 @@ export function temperatureCorrection(
 ): TemperatureCorrection {
   if (!profile.temperatureCorrection) return { applied: false, factor: 1, reason: "disabled" };
   if (gaugeTempC == null || linerTempC == null) return { applied: false, factor: 1, reason: "missing_temperature" };
-  const plausible = (t: number) => Number.isFinite(t) && t >= PLAUSIBLE_TEMPERATURE_C.min && t <= PLAUSIBLE_TEMPERATURE_C.max;
   if (!plausible(gaugeTempC) || !plausible(linerTempC)) return { applied: false, factor: 1, reason: "implausible_temperature" };
-  // Engineering metals expand by about 1e-5 per kelvin; anything near 1e-3 is a units slip.
-  const alphaOk = (a: number) => Number.isFinite(a) && a >= 0 && a < 1e-4;
   if (!alphaOk(profile.alphaGaugePerK) || !alphaOk(profile.alphaLinerPerK)) return { applied: false, factor: 1, reason: "invalid_coefficient" };
   return { applied: true, factor: correctTo20C(1, profile.alphaGaugePerK, gaugeTempC, profile.alphaLinerPerK, linerTempC) };
 }

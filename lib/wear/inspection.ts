@@ -50,16 +50,22 @@ export type InspectionAnalysis = {
   issues: InspectionIssue[];
 };
 
-const cellKey = (stationKey: string, axisKey: string) => `${stationKey}\u0000${axisKey}`;
-
-type ProfileLookups = { stations: Map<string, WearProfile["stations"][number]>; axisKeys: Set<string> };
+type ProfileLookups = {
+  /** Station key → its index in `profile.stations`. */
+  stationIndex: Map<string, number>;
+  /** Direction key → 0 or 1, its index in `profile.axes`. */
+  axisIndex: Map<string, number>;
+};
 const lookups = new WeakMap<WearProfile, ProfileLookups>();
 
 /** Station and direction look-ups, built once per profile object rather than per inspection. */
 function lookupsOf(profile: WearProfile): ProfileLookups {
   let l = lookups.get(profile);
   if (!l) {
-    l = { stations: new Map(profile.stations.map((s) => [s.key, s])), axisKeys: new Set(profile.axes.map((a) => a.key)) };
+    l = {
+      stationIndex: new Map(profile.stations.map((s, i) => [s.key, i])),
+      axisIndex: new Map(profile.axes.map((a, i) => [a.key, i])),
+    };
     lookups.set(profile, l);
   }
   return l;
@@ -84,65 +90,97 @@ const CORRECTION_REASON: Record<Exclude<TemperatureCorrection, { applied: true }
 export function analyseInspection(profile: WearProfile, inspection: Inspection, asFittedReadings?: readonly LinerReading[]): InspectionAnalysis {
   const issues: InspectionIssue[] = [];
   const correction = temperatureCorrection(profile, inspection.gaugeTempC, inspection.linerTempC);
-  const empty: InspectionAnalysis = {
-    inspectionId: inspection.id,
-    correction,
-    cells: [],
-    ovality: [],
-    maxWear: null,
-    maxOvality: null,
-    unwornBand: { status: "not_measured", maxAbsWearMm: null },
-    issues,
-  };
   const profileProblems = checkProfile(profile);
   if (profileProblems.length > 0) {
-    issues.push(...profileProblems.map((message) => ({ kind: "invalid_profile" as const, message })));
-    return empty;
+    for (const message of profileProblems) issues.push({ kind: "invalid_profile", message });
+    return {
+      inspectionId: inspection.id,
+      correction,
+      cells: [],
+      ovality: [],
+      maxWear: null,
+      maxOvality: null,
+      unwornBand: { status: "not_measured", maxAbsWearMm: null },
+      issues,
+    };
   }
   if (!correction.applied && CORRECTION_REASON[correction.reason]) {
     issues.push({ kind: "temperature_not_applied", message: CORRECTION_REASON[correction.reason]! });
   }
 
-  const { stations, axisKeys } = lookupsOf(profile);
-  const asFitted = new Map<string, number>();
-  for (const r of asFittedReadings ?? []) {
-    if (Number.isFinite(r.diameterMm) && r.diameterMm > 0) asFitted.set(cellKey(r.stationKey, r.axisKey), r.diameterMm);
-  }
+  // Cells are addressed by station index × 2 + direction index: a fleet recompute runs
+  // this for every reading, and string-keyed maps were most of its cost.
+  const { stationIndex, axisIndex } = lookupsOf(profile);
+  const stationList = profile.stations;
+  const nCells = stationList.length * 2;
   const useAsFitted = profile.wearReference === "as_fitted";
-  if (useAsFitted && asFitted.size === 0) {
+  const asFitted: (number | undefined)[] = new Array(nCells);
+  let asFittedCount = 0;
+  if (useAsFitted && asFittedReadings) {
+    for (const r of asFittedReadings) {
+      const si = stationIndex.get(r.stationKey);
+      const ai = axisIndex.get(r.axisKey);
+      if (si === undefined || ai === undefined || !Number.isFinite(r.diameterMm) || r.diameterMm <= 0) continue;
+      const k = si * 2 + ai;
+      if (asFitted[k] === undefined) asFittedCount++;
+      asFitted[k] = r.diameterMm;
+    }
+  }
+  if (useAsFitted && asFittedCount === 0) {
     issues.push({ kind: "no_as_fitted_reading", message: "No as-fitted readings for this liner: wear is measured from the nominal bore." });
   }
 
-  const cells = new Map<string, CellResult>();
+  const byCell: (CellResult | undefined)[] = new Array(nCells);
+  const cells: CellResult[] = [];
+  const factor = correction.factor;
+  const boreMm = profile.boreMm;
   for (const r of inspection.readings) {
-    const where = { stationKey: r.stationKey, axisKey: r.axisKey };
-    const station = stations.get(r.stationKey);
-    if (!station || !axisKeys.has(r.axisKey)) {
-      issues.push({ kind: "unknown_cell", message: "A reading names a station or direction that is not in the profile.", ...where });
+    const si = stationIndex.get(r.stationKey);
+    const ai = axisIndex.get(r.axisKey);
+    if (si === undefined || ai === undefined) {
+      issues.push({ kind: "unknown_cell", message: "A reading names a station or direction that is not in the profile.", stationKey: r.stationKey, axisKey: r.axisKey });
       continue;
     }
-    const key = cellKey(r.stationKey, r.axisKey);
-    if (cells.has(key)) {
-      issues.push({ kind: "duplicate_reading", message: `Two readings for ${station.label}; the first is used.`, ...where });
+    const station = stationList[si];
+    const k = si * 2 + ai;
+    if (byCell[k] !== undefined) {
+      issues.push({ kind: "duplicate_reading", message: `Two readings for ${station.label}; the first is used.`, stationKey: r.stationKey, axisKey: r.axisKey });
       continue;
     }
     if (!Number.isFinite(r.diameterMm) || r.diameterMm <= 0) {
-      issues.push({ kind: "invalid_value", message: `The reading at ${station.label} is not a valid diameter.`, ...where });
+      issues.push({ kind: "invalid_value", message: `The reading at ${station.label} is not a valid diameter.`, stationKey: r.stationKey, axisKey: r.axisKey });
       continue;
     }
-    const correctedMm = r.diameterMm * correction.factor;
-    const fitted = useAsFitted ? asFitted.get(key) : undefined;
-    if (useAsFitted && asFitted.size > 0 && fitted === undefined) {
-      issues.push({ kind: "no_as_fitted_reading", message: `No as-fitted reading at ${station.label}: wear there is measured from the nominal bore.`, ...where });
+    const correctedMm = r.diameterMm * factor;
+    const fitted = useAsFitted ? asFitted[k] : undefined;
+    if (useAsFitted && asFittedCount > 0 && fitted === undefined) {
+      issues.push({
+        kind: "no_as_fitted_reading",
+        message: `No as-fitted reading at ${station.label}: wear there is measured from the nominal bore.`,
+        stationKey: r.stationKey,
+        axisKey: r.axisKey,
+      });
     }
-    const wearMm = correctedMm - (fitted ?? profile.boreMm);
-    const nominal = checkAgainstNominal(profile.boreMm, correctedMm);
+    const wearMm = correctedMm - (fitted ?? boreMm);
+    const nominal = checkAgainstNominal(boreMm, correctedMm);
     if (nominal === "below_nominal") {
-      issues.push({ kind: "below_nominal", message: `${station.label}: ${mm(correctedMm)} is more than ${mm(WEAR_RULES.belowNominalMarginMm)} under the nominal bore; left out of the maxima.`, ...where });
+      issues.push({
+        kind: "below_nominal",
+        message: `${station.label}: ${mm(correctedMm)} is more than ${mm(WEAR_RULES.belowNominalMarginMm)} under the nominal bore; left out of the maxima.`,
+        stationKey: r.stationKey,
+        axisKey: r.axisKey,
+      });
     } else if (nominal === "far_above_nominal") {
-      issues.push({ kind: "far_above_nominal", message: `${station.label}: ${mm(correctedMm)} is far over the nominal bore, likely a typing error; left out of the maxima.`, ...where });
+      issues.push({
+        kind: "far_above_nominal",
+        message: `${station.label}: ${mm(correctedMm)} is far over the nominal bore, likely a typing error; left out of the maxima.`,
+        stationKey: r.stationKey,
+        axisKey: r.axisKey,
+      });
     }
-    cells.set(key, { stationKey: r.stationKey, axisKey: r.axisKey, rawMm: r.diameterMm, correctedMm, wearMm, usable: nominal === "ok" });
+    const cell: CellResult = { stationKey: r.stationKey, axisKey: r.axisKey, rawMm: r.diameterMm, correctedMm, wearMm, usable: nominal === "ok" };
+    byCell[k] = cell;
+    cells.push(cell);
   }
 
   const ovality: StationOvality[] = [];
@@ -150,20 +188,25 @@ export function analyseInspection(profile: WearProfile, inspection: Inspection, 
   let maxOvality: MaxOvality | null = null;
   let unwornMax: number | null = null;
   let unwornSuspect = false;
-  for (const station of profile.stations) {
-    const pair = profile.axes.map((axis) => {
-      const cell = cells.get(cellKey(station.key, axis.key));
-      if (!cell) {
+  for (let si = 0; si < stationList.length; si++) {
+    const station = stationList[si];
+    const unworn = isUnwornBand(station.role);
+    let a: CellResult | undefined;
+    let b: CellResult | undefined;
+    for (let ai = 0; ai < 2; ai++) {
+      const found = byCell[si * 2 + ai];
+      if (!found) {
+        const axis = profile.axes[ai];
         issues.push({ kind: "missing_reading", message: `No ${axis.label.toLowerCase()} reading at ${station.label}.`, stationKey: station.key, axisKey: axis.key });
       }
-      return cell?.usable ? cell : undefined;
-    });
-    for (const cell of pair) {
+      const cell = found?.usable ? found : undefined;
+      if (ai === 0) a = cell;
+      else b = cell;
       if (!cell) continue;
       if (!maxWear || cell.wearMm > maxWear.wearMm) {
         maxWear = { wearMm: cell.wearMm, stationKey: station.key, axisKey: cell.axisKey, depthMm: station.depthMm };
       }
-      if (isUnwornBand(station.role)) {
+      if (unworn) {
         const abs = Math.abs(cell.wearMm);
         unwornMax = Math.max(unwornMax ?? 0, abs);
         if (abs > WEAR_RULES.unwornBandToleranceMm) {
@@ -177,7 +220,6 @@ export function analyseInspection(profile: WearProfile, inspection: Inspection, 
         }
       }
     }
-    const [a, b] = pair;
     const ovalityMm = a && b ? Math.abs(a.correctedMm - b.correctedMm) : null;
     ovality.push({ stationKey: station.key, depthMm: station.depthMm, ovalityMm });
     if (ovalityMm !== null && (!maxOvality || ovalityMm > maxOvality.ovalityMm)) {
@@ -186,11 +228,13 @@ export function analyseInspection(profile: WearProfile, inspection: Inspection, 
   }
 
   return {
-    ...empty,
-    cells: [...cells.values()],
+    inspectionId: inspection.id,
+    correction,
+    cells,
     ovality,
     maxWear,
     maxOvality,
     unwornBand: unwornMax === null ? { status: "not_measured", maxAbsWearMm: null } : { status: unwornSuspect ? "suspect" : "ok", maxAbsWearMm: unwornMax },
+    issues,
   };
 }
