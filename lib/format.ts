@@ -6,6 +6,18 @@ export function fixed(value: number | null | undefined, decimals = 2): string {
   return value.toFixed(decimals);
 }
 
+/**
+ * An uncertainty beside a figure: at least `decimals` places, more when the value is so small
+ * that they would print it as zero (0.00078 rather than 0.000), so a tight fit never reads as
+ * no uncertainty at all.
+ */
+export function spread(value: number | null | undefined, decimals = 3): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return "–";
+  const a = Math.abs(value);
+  if (a === 0 || a >= 10 ** -decimals) return value.toFixed(decimals);
+  return value.toFixed(Math.min(10, Math.ceil(-Math.log10(a)) + 1));
+}
+
 /** Whole running hours with thin-space grouping, e.g. 41 250. */
 export function hours(value: number | null | undefined): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return "–";

@@ -12,6 +12,7 @@ import type { InspectionContext } from "@/lib/inspections/context";
 import { parseDecimal, randomToken } from "@/lib/inspections/form";
 import { checkHours, derivedLinerHours, linerHoursDiffer } from "@/lib/inspections/rules";
 import { newInspectionFormSchema } from "@/lib/inspections/schemas";
+import { day } from "@/lib/format";
 import { formatRunningHours } from "@/lib/wear/calendar";
 import { OverLimitMark, CautionMark } from "./marks";
 
@@ -147,7 +148,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
           <div id="engineHours-help" className="mt-1 space-y-1 text-sm">
             {ctx.previous ? (
               <p className="text-ink-faint">
-                Previous inspection {ctx.previous.inspectedOn}: <span className="num">{formatRunningHours(ctx.previous.engineHours)}</span>
+                Previous inspection {day(ctx.previous.inspectedOn)}: <span className="num">{formatRunningHours(ctx.previous.engineHours)}</span>
               </p>
             ) : (
               <p className="text-ink-faint">No earlier approved inspection of this unit.</p>

@@ -34,17 +34,23 @@ export function WearTable({
   const byCell = new Map(cells.map((c) => [key(c.stationKey, c.axisKey), c]));
   return (
     <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-      <table className="w-full min-w-[720px] text-sm">
+      {/* Below tablet width each cell stacks the wear over its readings, so a phone shows the
+          wear of both directions without scrolling sideways. */}
+      <table className="w-full text-sm md:min-w-[720px]">
         <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
           <tr>
-            <th className="px-3 py-2" scope="col">Station</th>
-            <th className="px-3 py-2 text-right" scope="col">Depth</th>
+            <th className="px-2 py-2 sm:px-3" scope="col">Station</th>
+            <th className="hidden px-2 py-2 sm:px-3 text-right sm:table-cell" scope="col">Depth</th>
             {axes.map((a) => (
-              <th key={a.key} className="px-3 py-2 text-right" scope="col">
-                {a.label}: read / at 20 °C / wear
+              <th key={a.key} className="px-2 py-2 sm:px-3 text-right" scope="col">
+                <span className="hidden md:inline">{a.label}: read / at 20 °C / wear</span>
+                <span className="md:hidden">
+                  {a.label} wear
+                  <span className="block font-normal tracking-normal normal-case">read, then at 20 °C</span>
+                </span>
               </th>
             ))}
-            <th className="px-3 py-2 text-right" scope="col">Ovality</th>
+            <th className="px-2 py-2 sm:px-3 text-right" scope="col">Ovality</th>
           </tr>
         </thead>
         <tbody className="divide-y divide-ink-line/70">
@@ -53,20 +59,21 @@ export function WearTable({
             const ovOver = ov !== null && ov >= ovalityLimitMm;
             return (
               <tr key={s.key}>
-                <th scope="row" className="px-3 py-2 text-left font-medium">
+                <th scope="row" className="px-2 py-2 sm:px-3 text-left font-medium">
                   <span className="font-mono">{s.key}</span> {s.label}
                   {maxWearStationKey === s.key ? <span className="ml-1 text-xs font-semibold">(max wear)</span> : null}
+                  <span className="num block text-xs font-normal text-ink-soft sm:hidden">{fixed(s.depthMm, 0)} mm deep</span>
                 </th>
-                <td className="num px-3 py-2 text-right">{fixed(s.depthMm, 0)} mm</td>
+                <td className="num hidden px-2 py-2 sm:px-3 text-right sm:table-cell">{fixed(s.depthMm, 0)} mm</td>
                 {axes.map((a) => {
                   const cell = byCell.get(key(s.key, a.key));
                   const note = notes?.get(key(s.key, a.key));
                   const over = cell && cell.usable && cell.wearMm >= wearLimitMm;
                   return (
-                    <td key={a.key} className="num px-3 py-2 text-right align-top">
+                    <td key={a.key} className="num px-2 py-2 sm:px-3 text-right align-top">
                       {cell ? (
                         <>
-                          <span className="text-ink-faint">
+                          <span className="hidden text-ink-faint md:inline">
                             {fixed(cell.rawMm, 2)} / {fixed(cell.correctedMm, 2)} /{" "}
                           </span>
                           <span className={over ? "font-semibold text-limit" : "font-semibold"}>
@@ -74,6 +81,8 @@ export function WearTable({
                             {fixed(cell.wearMm, 2)}
                             {over ? <span className="sr-only"> (at or over the limit)</span> : null}
                           </span>
+                          <span className="block text-xs text-ink-faint md:hidden">{fixed(cell.rawMm, 2)}</span>
+                          <span className="block text-xs text-ink-faint md:hidden">{fixed(cell.correctedMm, 2)}</span>
                           {note?.enteredUnit === "in" ? <span className="block text-xs text-ink-faint">entered in inches</span> : null}
                           {!cell.usable ? <span className="block text-xs text-caution">implausible, not counted</span> : null}
                           {note?.warningConfirmed ? (
@@ -89,7 +98,7 @@ export function WearTable({
                     </td>
                   );
                 })}
-                <td className={`num px-3 py-2 text-right ${ovOver ? "font-semibold text-limit" : ""}`}>
+                <td className={`num px-2 py-2 sm:px-3 text-right ${ovOver ? "font-semibold text-limit" : ""}`}>
                   {ov === null ? (
                     "–"
                   ) : (

@@ -74,6 +74,13 @@ test.describe("[ROLES][HOME] each role lands on its own start", () => {
     await expect(page.getByRole("heading", { name: /Main engine/ })).toBeVisible();
     await expect(page.getByRole("heading", { name: /Awaiting your approval/ })).toHaveCount(0);
     await expect(page.locator("main").getByText(/^Cyl\. \d+$/).first()).toBeVisible();
+    // A unit that is not theirs (or not there) and an address that is no page both get our own
+    // plain page with a way back, not the framework's bare 404.
+    await page.goto("/units/99999");
+    await expect(page.getByRole("heading", { name: "Nothing here" })).toBeVisible();
+    await expect(page.getByRole("link", { name: "Back to start" })).toBeVisible();
+    await page.goto("/no-such-page");
+    await expect(page.getByRole("heading", { name: "No such page" })).toBeVisible();
   });
 });
 

@@ -168,15 +168,16 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
       <section className="mb-6">
         <h2 className="mb-2 text-lg font-semibold">Piston rings</h2>
         <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-          <table className="w-full min-w-[720px] text-sm">
+          {/* On a phone the ring's other columns fold under its gap and its name. */}
+          <table className="w-full text-sm md:min-w-[720px]">
             <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
               <tr>
-                <th className="px-3 py-2" scope="col">Ring</th>
-                <th className="px-3 py-2 text-right" scope="col">Closed gap</th>
-                <th className="px-3 py-2" scope="col">Measured in</th>
-                <th className="px-3 py-2 text-right" scope="col">Groove clearance</th>
-                <th className="px-3 py-2" scope="col">Renewed</th>
-                <th className="px-3 py-2" scope="col">Condition</th>
+                <th className="px-2 py-2 sm:px-3" scope="col">Ring</th>
+                <th className="px-2 py-2 text-right sm:px-3" scope="col">Closed gap</th>
+                <th className="hidden px-3 py-2 md:table-cell" scope="col">Measured in</th>
+                <th className="px-2 py-2 text-right sm:px-3" scope="col">Groove clearance</th>
+                <th className="hidden px-3 py-2 md:table-cell" scope="col">Renewed</th>
+                <th className="hidden px-3 py-2 md:table-cell" scope="col">Condition</th>
               </tr>
             </thead>
             <tbody className="divide-y divide-ink-line/70">
@@ -190,12 +191,22 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                 const tone = (s: typeof live.gap) => (s === "at_or_over_limit" ? "font-semibold text-limit" : s === "below_new_range" ? "text-caution" : "");
                 return (
                   <tr key={spec.position}>
-                    <th scope="row" className="px-3 py-2 text-left font-medium whitespace-nowrap">{spec.label}</th>
-                    <td className="num px-3 py-2 text-right">
+                    <th scope="row" className="px-2 py-2 text-left align-top font-medium sm:px-3">
+                      <span className="whitespace-nowrap">{spec.label}</span>
+                      <span className="block text-xs font-normal text-ink-soft md:hidden">
+                        {r?.renewed ? "renewed" : "not renewed"}
+                        {r?.condition ? ` · ${r.condition}` : ""}
+                      </span>
+                    </th>
+                    <td className="num px-2 py-2 text-right align-top sm:px-3">
                       {r?.closedGapMm != null ? <span className={tone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
-                      {live.gap ? <span className="block text-xs text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
+                      {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
+                      {r ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
+                      {referred !== null ? (
+                        <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span>
+                      ) : null}
                     </td>
-                    <td className="px-3 py-2">
+                    <td className="hidden px-3 py-2 align-top md:table-cell">
                       {r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint">
@@ -203,12 +214,12 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                         </span>
                       ) : null}
                     </td>
-                    <td className="num px-3 py-2 text-right">
+                    <td className="num px-2 py-2 text-right align-top sm:px-3">
                       {r?.grooveClearanceMm != null ? <span className={tone(live.groove)}>{live.groove === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.grooveClearanceMm)} mm</span> : "–"}
-                      {live.groove ? <span className="block text-xs text-ink-faint">{RING_STATE_TEXT[live.groove]} (limit {fixed(spec.grooveLimitMm)} mm)</span> : null}
+                      {live.groove ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.groove]} (limit {fixed(spec.grooveLimitMm)} mm)</span> : null}
                     </td>
-                    <td className="px-3 py-2">{r?.renewed ? "Yes" : "No"}</td>
-                    <td className="px-3 py-2">{r?.condition ?? <span className="text-ink-faint">–</span>}</td>
+                    <td className="hidden px-3 py-2 align-top md:table-cell">{r?.renewed ? "Yes" : "No"}</td>
+                    <td className="hidden px-3 py-2 align-top md:table-cell">{r?.condition ?? <span className="text-ink-faint">–</span>}</td>
                   </tr>
                 );
               })}
@@ -225,8 +236,8 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
               <thead className="text-left text-xs text-ink-soft uppercase">
                 <tr>
                   <th className="py-1" scope="col">Item</th>
-                  <th className="py-1 text-right" scope="col">In</th>
-                  <th className="py-1 text-right" scope="col">Out</th>
+                  <th className="py-1 pl-3 text-right" scope="col">In</th>
+                  <th className="py-1 pl-3 text-right" scope="col">Out</th>
                   <th className="py-1 pl-3" scope="col">Tally</th>
                 </tr>
               </thead>
@@ -236,8 +247,8 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                   return (
                     <tr key={t.key}>
                       <td className="py-1">{t.label}</td>
-                      <td className="py-1 text-right">{t.countIn ?? "–"}</td>
-                      <td className="py-1 text-right">{t.countOut ?? "–"}</td>
+                      <td className="py-1 pl-3 text-right">{t.countIn ?? "–"}</td>
+                      <td className="py-1 pl-3 text-right">{t.countOut ?? "–"}</td>
                       <td className={`py-1 pl-3 ${st === "mismatch" ? "font-semibold text-limit" : ""}`}>{st === "match" ? "✓ matches" : st === "mismatch" ? <><OverLimitMark />does not match</> : "not counted"}</td>
                     </tr>
                   );

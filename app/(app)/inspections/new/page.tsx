@@ -36,7 +36,7 @@ export default async function NewInspectionPage({ searchParams }: { searchParams
                     <Link href={`/inspections/new?unit=${u.id}`} className="block min-h-12 rounded-md border border-ink-line bg-paper-raised p-3 hover:border-signal">
                       <span className="block font-semibold">Cylinder {u.cylinderNo}</span>
                       <span className="block text-sm text-ink-faint">last gauged {day(u.lastInspectedOn)}</span>
-                      {u.nextOverhaulEngineHours ? <span className="num block text-sm text-ink-faint">due {hours(u.nextOverhaulEngineHours)} h</span> : null}
+                      {u.nextOverhaulEngineHours ? <span className="num block text-sm text-ink-faint">next overhaul at {hours(u.nextOverhaulEngineHours)} engine h</span> : null}
                     </Link>
                   </li>
                 ))}

@@ -11,7 +11,7 @@ import { WearTable } from "@/components/wear/wear-table";
 import { getUnitAnalysis } from "@/lib/analysis/queries";
 import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
-import { day, fixed, hours } from "@/lib/format";
+import { day, fixed, hours, spread } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Unit history" };
 
@@ -72,7 +72,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
           unit="mm/1000 h"
           hint={
             summary.trend
-              ? `± ${fixed(summary.trend.slopeSdMmPer1000h, 3)} · R² ${fixed(summary.trend.rSquared, 3)} · ${summary.trend.n} points`
+              ? `± ${spread(summary.trend.slopeSdMmPer1000h, 3)} (1 s.d.) · R² ${fixed(summary.trend.rSquared, 3)} · ${summary.trend.n} points`
               : "needs readings past running-in"
           }
         />
@@ -147,14 +147,14 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
         <section className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">Piston rings at the last overhaul</h2>
           <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-            <table className="w-full min-w-[640px] text-sm">
+            <table className="w-full text-sm sm:min-w-[640px]">
               <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
                 <tr>
                   <th className="px-3 py-2" scope="col">Ring</th>
                   <th className="px-3 py-2 text-right" scope="col">Closed gap</th>
-                  <th className="px-3 py-2 text-right" scope="col">Gap limit</th>
+                  <th className="hidden px-3 py-2 text-right sm:table-cell" scope="col">Gap limit</th>
                   <th className="px-3 py-2 text-right" scope="col">Groove clearance</th>
-                  <th className="px-3 py-2 text-right" scope="col">Groove limit</th>
+                  <th className="hidden px-3 py-2 text-right sm:table-cell" scope="col">Groove limit</th>
                   <th className="px-3 py-2" scope="col">Verdict</th>
                 </tr>
               </thead>
@@ -164,10 +164,16 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
                   return (
                     <tr key={r.position}>
                       <th scope="row" className="px-3 py-2 text-left font-medium">{r.position === 1 ? "1 (top)" : r.position}</th>
-                      <td className="num px-3 py-2 text-right">{r.gap ? `${fixed(r.gap.valueMm)} mm` : "–"}</td>
-                      <td className="num px-3 py-2 text-right text-ink-faint">{spec ? `${fixed(spec.gapLimitMm)} mm` : "–"}</td>
-                      <td className="num px-3 py-2 text-right">{r.groove ? `${fixed(r.groove.valueMm)} mm` : "–"}</td>
-                      <td className="num px-3 py-2 text-right text-ink-faint">{spec ? `${fixed(spec.grooveLimitMm)} mm` : "–"}</td>
+                      <td className="num px-3 py-2 text-right align-top">
+                        {r.gap ? `${fixed(r.gap.valueMm)} mm` : "–"}
+                        {spec ? <span className="block text-xs text-ink-faint sm:hidden">limit {fixed(spec.gapLimitMm)}</span> : null}
+                      </td>
+                      <td className="num hidden px-3 py-2 text-right text-ink-faint sm:table-cell">{spec ? `${fixed(spec.gapLimitMm)} mm` : "–"}</td>
+                      <td className="num px-3 py-2 text-right align-top">
+                        {r.groove ? `${fixed(r.groove.valueMm)} mm` : "–"}
+                        {spec ? <span className="block text-xs text-ink-faint sm:hidden">limit {fixed(spec.grooveLimitMm)}</span> : null}
+                      </td>
+                      <td className="num hidden px-3 py-2 text-right text-ink-faint sm:table-cell">{spec ? `${fixed(spec.grooveLimitMm)} mm` : "–"}</td>
                       <td className="px-3 py-2">
                         {r.overLimit ? (
                           <span className="inline-flex items-center gap-1 font-semibold text-limit"><BandIcon band="over_limit" /> Over limit — renew</span>
@@ -191,11 +197,11 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
         <div className="min-w-0 lg:col-span-2">
           <h2 className="mb-2 text-lg font-semibold">Overhauls</h2>
           <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-            <table className="w-full min-w-[560px] text-sm">
+            <table className="w-full text-sm sm:min-w-[560px]">
               <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
                 <tr>
                   <th className="px-3 py-2" scope="col">Date</th>
-                  <th className="px-3 py-2 text-right" scope="col">Engine hours</th>
+                  <th className="hidden px-3 py-2 text-right sm:table-cell" scope="col">Engine hours</th>
                   <th className="px-3 py-2 text-right" scope="col">Liner hours</th>
                   <th className="px-3 py-2 text-right" scope="col">Max wear</th>
                   <th className="px-3 py-2" scope="col">State</th>
@@ -207,7 +213,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
                   return (
                     <tr key={i.id}>
                       <td className="num px-3 py-2"><Link href={`/inspections/${i.id}`} className="font-medium text-signal hover:underline">{day(i.inspectedOn)}</Link></td>
-                      <td className="num px-3 py-2 text-right">{hours(i.engineHours)} h</td>
+                      <td className="num hidden px-3 py-2 text-right sm:table-cell">{hours(i.engineHours)} h</td>
                       <td className="num px-3 py-2 text-right">{hours(i.linerHours)} h</td>
                       <td className="num px-3 py-2 text-right">{p ? `${fixed(p.maxWearMm)} mm` : "–"}</td>
                       <td className="px-3 py-2">
