@@ -9,10 +9,11 @@ const variants: Record<Variant, string> = {
   danger: "bg-paper-raised text-limit border-limit hover:bg-limit-tint",
 };
 
+/** Actions have no place on paper: every button, and every link styled as one, is left out of print. */
 export function buttonClass(variant: Variant = "primary", size: "md" | "lg" = "md"): string {
   return cn(
     "inline-flex items-center justify-center gap-2 rounded-md border font-medium transition-colors",
-    "disabled:cursor-not-allowed disabled:opacity-50",
+    "disabled:cursor-not-allowed disabled:opacity-50 print:hidden",
     size === "lg" ? "min-h-12 px-5 text-base" : "min-h-10 px-4 text-sm",
     variants[variant],
   );

@@ -9,7 +9,7 @@ import { ProjectionText } from "@/components/wear/projection-text";
 import { WearTable, wearCellKey } from "@/components/wear/wear-table";
 import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
-import { day, fixed, hours } from "@/lib/format";
+import { day, fixed, hours, spread } from "@/lib/format";
 import { toWearProfile } from "@/lib/inspections/context";
 import { getInspectionForUser, getStoredUnitSummary, listInspectionAudit } from "@/lib/inspections/queries";
 import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
@@ -125,7 +125,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
           <dl className="tabular-nums mt-2 grid gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
             <div>
               <dt className="inline text-ink-faint">Wear rate, trend: </dt>
-              <dd className="inline">{summary.trend ? `${fixed(summary.trend.slopeMmPer1000h, 3)} ± ${fixed(summary.trend.slopeSdMmPer1000h, 3)} mm/1000 h` : "not enough points"}</dd>
+              <dd className="inline">{summary.trend ? `${fixed(summary.trend.slopeMmPer1000h, 3)} ± ${spread(summary.trend.slopeSdMmPer1000h, 3)} mm/1000 h` : "not enough points"}</dd>
             </div>
             <div>
               <dt className="inline text-ink-faint">Last interval: </dt>
