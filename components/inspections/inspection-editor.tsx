@@ -9,6 +9,7 @@ import { cellKey, toWearProfile, type InspectionContext } from "@/lib/inspection
 import { parseDecimal, toDraft, type FormState } from "@/lib/inspections/form";
 import { checkHours, derivedLinerHours, linerHoursDiffer, readingWarnings, submissionProblems, type Problem } from "@/lib/inspections/rules";
 import type { InspectionDto } from "@/lib/inspections/schemas";
+import { day } from "@/lib/format";
 import { formatFixed, type LengthUnit } from "@/lib/units/length";
 import { formatRunningHours } from "@/lib/wear/calendar";
 import { analyseInspection } from "@/lib/wear/inspection";
@@ -245,7 +246,7 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
             <p className="mt-1 text-sm text-ink-faint">
               {ctx.previous ? (
                 <>
-                  Previous inspection {ctx.previous.inspectedOn} at <span className="num">{formatRunningHours(ctx.previous.engineHours)}</span>.{" "}
+                  Previous inspection {day(ctx.previous.inspectedOn)} at <span className="num">{formatRunningHours(ctx.previous.engineHours)}</span>.{" "}
                 </>
               ) : null}
               Liner <span className="font-mono">{ctx.liner.serial}</span>

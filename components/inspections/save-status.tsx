@@ -3,7 +3,7 @@
 import { cn } from "@/lib/utils";
 import type { SaveStatus } from "./use-draft-autosave";
 
-const time = (iso: string | null) => (iso ? new Date(iso).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" }) : "");
+const time = (iso: string | null) => (iso ? new Date(iso).toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" }) : "");
 
 /** Where the typed readings are: on the server, on the way, or only on this device — always in words. */
 export function SaveStatusBadge({ status, invalidCount }: { status: SaveStatus; invalidCount: number }) {

@@ -151,15 +151,21 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
   );
 
   // On opening: unsaved edits kept on this device win over the server copy they were based on;
-  // if the server moved on meanwhile, that is a conflict for the engineer to settle.
+  // if the server moved on meanwhile, that is a conflict for the engineer to settle. A page
+  // opened with no network is this device's last copy of the page, which may be older than
+  // what the device has saved since: then the device's copy, and its revision, stand.
   useEffect(() => {
     const local = readLocal(id);
-    if (local?.dirty) {
+    const newerHere = local !== null && local.baseRevision > initial.revision;
+    if (local && (local.dirty || newerHere)) {
       formRef.current = local.form;
       setFormState(local.form);
-      dirtyRef.current = true;
-      setRestored(true);
-      if (local.baseRevision === initial.revision) {
+      if (newerHere) revisionRef.current = local.baseRevision;
+      dirtyRef.current = local.dirty;
+      setRestored(local.dirty);
+      if (!local.dirty) {
+        setStatus({ kind: "saved", at: local.at });
+      } else if (local.baseRevision >= initial.revision) {
         void save();
       } else {
         blocked.current = true;

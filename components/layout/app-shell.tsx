@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { Wordmark } from "@/components/ui/logo";
 import { ROLE_LABELS, type Role } from "@/lib/auth/roles";
+import { OfflineSupport } from "./offline-support";
 import { SignOutButton } from "./sign-out-button";
 
 export type NavItem = { href: string; label: string };
@@ -41,6 +42,7 @@ export function AppShell({
           </div>
         </div>
       </header>
+      <OfflineSupport />
       <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-6 sm:px-6">{children}</main>
     </div>
   );

@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { authClient } from "@/lib/auth/auth-client";
+import { forgetOfflinePages } from "./offline-support";
 
 export function SignOutButton() {
   const router = useRouter();
@@ -15,6 +16,7 @@ export function SignOutButton() {
       onClick={async () => {
         setPending(true);
         await authClient.signOut();
+        await forgetOfflinePages();
         router.replace("/sign-in");
         router.refresh();
       }}

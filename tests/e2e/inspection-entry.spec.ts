@@ -148,6 +148,65 @@ test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul
     await chiefContext.close();
   });
 
+  test("a gauging sheet opened on this device opens again with no network, and sign-out forgets it", async ({ page, context }) => {
+    test.setTimeout(150_000);
+    await page.setViewportSize({ width: 820, height: 1180 });
+    await signIn(page, DEMO.engineer);
+    await page.goto("/inspections/new");
+    await page.getByRole("link", { name: /Cylinder 5/ }).first().click();
+    await expect(page).toHaveURL(/unit=\d+/);
+    const unitId = Number(new URL(page.url()).searchParams.get("unit"));
+    const analysis = (await (await page.request.get(`/api/units/${unitId}/analysis`)).json()) as Analysis;
+    const engine = await (await page.request.get(`/api/engines/${analysis.context.engineId}/analysis`)).json();
+    const { stations, axes, boreMm } = analysis.profile;
+    const last = analysis.series.at(-1)?.cells ?? [];
+    const value = (i: number) => {
+      const prev = last.find((c) => c.stationKey === stations[i].key && c.axisKey === axes[0].key)?.correctedMm ?? boreMm + 0.2;
+      return (Math.round((prev + 0.02) * 100) / 100).toFixed(2);
+    };
+    await page.getByLabel("Engine running hours (counter)").fill(String(Math.round(engine.latestHours.engineHours)));
+    await page.getByLabel("Crew (who gauged)").fill("3/E");
+    await page.getByLabel("Micrometer temperature").fill("20");
+    await page.getByLabel("Liner temperature").fill("20");
+    await page.getByRole("button", { name: "Open the gauging sheet" }).click();
+    await expect(page).toHaveURL(/\/inspections\/\d+\/edit$/);
+    const sheetUrl = page.url();
+
+    // The service worker takes charge and keeps a copy of this sheet on the device.
+    await expect.poll(() => page.evaluate(() => navigator.serviceWorker?.controller != null), { timeout: 30_000 }).toBe(true);
+    await expect
+      .poll(() => page.evaluate(async (url) => !!(await (await caches.open("kalibore-pages-v1")).match(url)), sheetUrl), { timeout: 30_000 })
+      .toBe(true);
+    await page.locator("#cell-0-0").fill(value(0));
+    await expect(status(page)).toHaveAttribute("data-save-status", "saved", { timeout: 15_000 });
+
+    // No network, and the page is opened again: the device's copy, with the reading saved since.
+    await context.setOffline(true);
+    await page.reload();
+    await expect(page.getByText("No network.", { exact: false }).first()).toBeVisible();
+    await expect(page.locator("#cell-0-0")).toHaveValue(value(0));
+    await page.locator("#cell-1-0").fill(value(1));
+    await expect(status(page)).toContainText("Offline — kept on this device", { timeout: 15_000 });
+
+    // A page never opened on this device says so, instead of the browser's error.
+    await page.goto("/units/999999");
+    await expect(page.getByRole("heading", { name: "No network" })).toBeVisible();
+    await page.goto(sheetUrl);
+    await expect(page.locator("#cell-1-0")).toHaveValue(value(1));
+
+    // The network returns: the reading typed offline reaches the server.
+    await context.setOffline(false);
+    await expect(status(page)).toHaveAttribute("data-save-status", "saved", { timeout: 30_000 });
+    await page.reload();
+    await expect(page.locator("#cell-1-0")).toHaveValue(value(1));
+
+    // Signing out deletes the device's page copies.
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await expect(page).toHaveURL(/\/sign-in/);
+    const kept = await page.evaluate(async () => (await caches.keys()).filter((k) => k.startsWith("kalibore-pages-")));
+    expect(kept).toEqual([]);
+  });
+
   test("the server refuses what a client lets through, in words that name the field", async ({ page }) => {
     await signIn(page, DEMO.engineer);
     await page.goto("/inspections/new");
