@@ -6,7 +6,7 @@ import { useMemo, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import { cellKey, toWearProfile, type InspectionContext } from "@/lib/inspections/context";
-import { parseDecimal, toDraft, type FormState } from "@/lib/inspections/form";
+import { emptyRing, parseDecimal, ringInUnit, toDraft, type FormState } from "@/lib/inspections/form";
 import { checkHours, derivedLinerHours, linerHoursDiffer, readingWarnings, submissionProblems, type Problem } from "@/lib/inspections/rules";
 import type { InspectionDto } from "@/lib/inspections/schemas";
 import { day } from "@/lib/format";
@@ -116,7 +116,9 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
     }
   }
 
-  const setUnit = (u: LengthUnit) => setForm((f) => ({ ...f, entryUnit: u }));
+  // The switch applies to the whole sheet: ring lengths already typed are converted with it.
+  const setUnit = (u: LengthUnit) =>
+    setForm((f) => ({ ...f, entryUnit: u, rings: Object.fromEntries(Object.entries(f.rings).map(([k, r]) => [k, ringInUnit(r, u)])) }));
   const conflictEditable = conflict && (conflict.state === "draft" || conflict.state === "returned");
 
   return (
@@ -337,7 +339,14 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
         <h2 id="rings-h" className="mb-3 text-xl font-semibold">
           Piston rings
         </h2>
-        <RingTable profile={profile} rings={form.rings} onChange={(position, patch) => setForm((f) => ({ ...f, rings: { ...f.rings, [position]: { ...f.rings[position], ...patch } } }))} />
+        <RingTable
+          profile={profile}
+          rings={form.rings}
+          unit={form.entryUnit}
+          onChange={(position, patch) =>
+            setForm((f) => ({ ...f, rings: { ...f.rings, [position]: { ...ringInUnit(f.rings[position] ?? emptyRing, f.entryUnit), ...patch } } }))
+          }
+        />
       </section>
 
       <section id="checklist" aria-labelledby="checklist-h" className="scroll-mt-32">

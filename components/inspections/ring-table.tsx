@@ -1,11 +1,11 @@
 "use client";
 
 import type { ContextProfile } from "@/lib/inspections/context";
-import { parseDecimal, type RingEntry } from "@/lib/inspections/form";
+import { emptyRing, parseDecimal, toMm, type RingEntry } from "@/lib/inspections/form";
 import { RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/schemas";
 import { normaliseClosedGap, type RingState } from "@/lib/rings/rings";
-import { formatFixed } from "@/lib/units/length";
+import { formatFixed, type LengthUnit } from "@/lib/units/length";
 import { cn } from "@/lib/utils";
 import { OverLimitMark, CautionMark, OkMark } from "./marks";
 
@@ -38,21 +38,27 @@ export const ringInputId = (position: number, what: "gap" | "groove" | "linerd")
 export function RingTable({
   profile,
   rings,
+  unit = "mm",
   readOnly,
   onChange,
 }: {
   profile: ContextProfile;
   rings: Record<string, RingEntry>;
+  /** The sheet's entry unit; limits and the comparison are always shown in mm. */
+  unit?: LengthUnit;
   readOnly?: boolean;
   onChange: (position: number, patch: Partial<RingEntry>) => void;
 }) {
   return (
     <ol className="grid gap-3 lg:grid-cols-2">
       {profile.rings.map((spec, i) => {
-        const r = rings[spec.position] ?? { closedGap: "", gapMeasuredIn: "gauge_ring", groove: "", renewed: false, condition: "" };
-        const gap = parseDecimal(r.closedGap);
-        const groove = parseDecimal(r.groove);
-        const linerD = r.gapMeasuredIn === "liner_worn" ? parseDecimal(r.gapLinerDiameter ?? "") : null;
+        const r = rings[spec.position] ?? emptyRing;
+        // Typed in the ring's unit, judged in mm.
+        const inMm = (v: number | null | "invalid") => (typeof v === "number" ? toMm(v, r.unit ?? "mm") : v);
+        const gap = inMm(parseDecimal(r.closedGap));
+        const groove = inMm(parseDecimal(r.groove));
+        const linerD = r.gapMeasuredIn === "liner_worn" ? inMm(parseDecimal(r.gapLinerDiameter ?? "")) : null;
+        const unitText = unit === "mm" ? "mm" : "in";
         // A gap read in a worn part of the liner is judged as if in a gauge ring of nominal bore.
         const referred =
           typeof gap === "number" && typeof linerD === "number" ? normaliseClosedGap(gap, "liner_worn", linerD - profile.boreMm).gapMm : null;
@@ -69,7 +75,7 @@ export function RingTable({
             <div className="grid gap-3 sm:grid-cols-2">
               <div>
                 <label htmlFor={ringInputId(spec.position, "gap")} className="block text-sm font-medium text-ink-soft">
-                  Closed gap (mm)
+                  Closed gap ({unitText})
                 </label>
                 <input
                   id={ringInputId(spec.position, "gap")}
@@ -85,11 +91,12 @@ export function RingTable({
                   className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution"
                 />
                 {gap === "invalid" ? <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p> : null}
+                {unit === "in" && typeof gap === "number" ? <p className="num text-sm text-ink-faint">= {gap.toFixed(3)} mm as read</p> : null}
                 <StateLine state={live.gap} newMin={spec.gapNewMinMm} newMax={spec.gapNewMaxMm} limit={spec.gapLimitMm} />
               </div>
               <div>
                 <label htmlFor={ringInputId(spec.position, "groove")} className="block text-sm font-medium text-ink-soft">
-                  Groove axial clearance (mm)
+                  Groove axial clearance ({unitText})
                 </label>
                 <input
                   id={ringInputId(spec.position, "groove")}
@@ -105,6 +112,7 @@ export function RingTable({
                   className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution"
                 />
                 {groove === "invalid" ? <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p> : null}
+                {unit === "in" && typeof groove === "number" ? <p className="num text-sm text-ink-faint">= {groove.toFixed(3)} mm</p> : null}
                 <StateLine state={live.groove} newMin={spec.grooveNewMinMm} newMax={spec.grooveNewMaxMm} limit={spec.grooveLimitMm} />
               </div>
             </div>
@@ -135,7 +143,7 @@ export function RingTable({
               {r.gapMeasuredIn === "liner_worn" ? (
                 <div className="mt-2">
                   <label htmlFor={ringInputId(spec.position, "linerd")} className="block text-sm font-medium text-ink-soft">
-                    Liner diameter where the gap was measured (mm)
+                    Liner diameter where the gap was measured ({unitText})
                   </label>
                   <input
                     id={ringInputId(spec.position, "linerd")}
@@ -146,7 +154,7 @@ export function RingTable({
                     value={r.gapLinerDiameter ?? ""}
                     aria-invalid={linerD === "invalid" || undefined}
                     onChange={(e) => onChange(spec.position, { gapLinerDiameter: e.target.value })}
-                    placeholder={`e.g. ${(profile.boreMm + 1).toFixed(2)}`}
+                    placeholder={`e.g. ${unit === "mm" ? (profile.boreMm + 1).toFixed(2) : ((profile.boreMm + 1) / 25.4).toFixed(4)}`}
                     className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution sm:w-1/2"
                   />
                   <p className="mt-1 text-sm text-ink-soft">

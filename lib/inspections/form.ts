@@ -12,6 +12,8 @@ import { emptyChecklist } from "./schemas";
 
 export type CellEntry = { text: string; unit: LengthUnit; confirmed: string | null };
 export type RingEntry = {
+  /** The unit the three lengths below are typed in; absent in records kept before it existed (mm). */
+  unit?: LengthUnit;
   closedGap: string;
   gapMeasuredIn: RingReadingInput["gapMeasuredIn"];
   /** Liner diameter where a gap was measured in a worn part of the liner. */
@@ -20,6 +22,9 @@ export type RingEntry = {
   renewed: boolean;
   condition: string;
 };
+/** A ring not yet touched on the sheet. */
+export const emptyRing: RingEntry = { closedGap: "", gapMeasuredIn: "gauge_ring", groove: "", renewed: false, condition: "" };
+
 export type TallyEntry = { key: string; label: string; countIn: string; countOut: string };
 
 export type FormState = {
@@ -67,6 +72,21 @@ export function toMm(value: number, unit: LengthUnit): number {
   return Math.round(mm * 1000) / 1000;
 }
 
+/**
+ * A ring's typed lengths in another unit, as the sheet's mm/inch switch does for every ring:
+ * numbers are converted, anything half-typed or not a number is left as typed.
+ */
+export function ringInUnit(r: RingEntry, unit: LengthUnit): RingEntry {
+  const from = r.unit ?? "mm";
+  if (from === unit) return { ...r, unit };
+  const convert = (text: string | undefined) => {
+    if (text === undefined) return undefined;
+    const v = parseDecimal(text);
+    return typeof v === "number" ? lengthText(toMm(v, from), unit) : text;
+  };
+  return { ...r, unit, closedGap: convert(r.closedGap)!, groove: convert(r.groove)!, gapLinerDiameter: convert(r.gapLinerDiameter) };
+}
+
 /** A stored millimetre value as text in the unit it is shown in (inches to 0.0001 in). */
 export function lengthText(mm: number, unit: LengthUnit): string {
   // Gauges read to 0.01 mm: keep two decimals at least, and the third when the value has one.
@@ -81,20 +101,24 @@ export function fromDraft(draft: InspectionDraft, profile: ContextProfile): Form
   for (const r of draft.readings) {
     cells[cellKey(r.stationKey, r.axisKey)] = { text: lengthText(r.diameterMm, r.enteredUnit), unit: r.enteredUnit, confirmed: r.warningConfirmed };
   }
+  // Rings are stored in mm and shown in the sheet's unit: inches when every reading was typed in inches.
+  const units = draft.readings.map((r) => r.enteredUnit);
+  const entryUnit: LengthUnit = units.length && units.every((u) => u === "in") ? "in" : "mm";
+  const ringText = (v: number | null | undefined) => (v == null ? "" : entryUnit === "mm" ? String(v) : lengthText(v, "in"));
   const rings: Record<string, RingEntry> = {};
   for (const spec of profile.rings) {
     const r = draft.rings.find((x) => x.position === spec.position);
     rings[spec.position] = {
-      closedGap: str(r?.closedGapMm),
+      unit: entryUnit,
+      closedGap: ringText(r?.closedGapMm),
       gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
-      gapLinerDiameter: str(r?.gapLinerDiameterMm),
-      groove: str(r?.grooveClearanceMm),
+      gapLinerDiameter: ringText(r?.gapLinerDiameterMm),
+      groove: ringText(r?.grooveClearanceMm),
       renewed: r?.renewed ?? false,
       condition: r?.condition ?? "",
     };
   }
   const c = draft.checklist ?? emptyChecklist();
-  const units = draft.readings.map((r) => r.enteredUnit);
   return {
     header: {
       inspectedOn: draft.header.inspectedOn,
@@ -106,7 +130,7 @@ export function fromDraft(draft: InspectionDraft, profile: ContextProfile): Form
       linerTempC: str(draft.header.linerTempC),
       notes: draft.header.notes ?? "",
     },
-    entryUnit: units.length && units.every((u) => u === "in") ? "in" : "mm",
+    entryUnit,
     cells,
     rings,
     checklist: {
@@ -187,13 +211,17 @@ export function toDraft(form: FormState, profile: ContextProfile, fallback: Insp
 
   const rings: InspectionDraft["rings"] = profile.rings.map((spec) => {
     const r = form.rings[spec.position];
+    const length = (field: string, text: string) => {
+      const v = read(field, text);
+      return v === null ? null : toMm(v, r?.unit ?? "mm");
+    };
     return {
       position: spec.position,
-      closedGapMm: r ? read(`rings.${spec.position}.closedGapMm`, r.closedGap) : null,
+      closedGapMm: r ? length(`rings.${spec.position}.closedGapMm`, r.closedGap) : null,
       gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
       gapLinerDiameterMm:
-        r && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameter ? read(`rings.${spec.position}.gapLinerDiameterMm`, r.gapLinerDiameter) : null,
-      grooveClearanceMm: r ? read(`rings.${spec.position}.grooveClearanceMm`, r.groove) : null,
+        r && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameter ? length(`rings.${spec.position}.gapLinerDiameterMm`, r.gapLinerDiameter) : null,
+      grooveClearanceMm: r ? length(`rings.${spec.position}.grooveClearanceMm`, r.groove) : null,
       renewed: r?.renewed ?? false,
       condition: r ? text(r.condition) : null,
     };

@@ -180,6 +180,15 @@ test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul
     await page.locator("#cell-0-0").fill(value(0));
     await expect(status(page)).toHaveAttribute("data-save-status", "saved", { timeout: 15_000 });
 
+    // Ring lengths follow the sheet's mm/inch switch, and are converted with it.
+    await page.getByRole("radio", { name: "inch" }).click();
+    await expect(page.getByText("Closed gap (in)").first()).toBeVisible();
+    await page.locator("#ring-1-gap").fill("0.1576");
+    await expect(page.getByText("= 4.003 mm as read")).toBeVisible();
+    await page.getByRole("radio", { name: "mm" }).click();
+    await expect(page.locator("#ring-1-gap")).toHaveValue("4.003");
+    await expect(status(page)).toHaveAttribute("data-save-status", "saved", { timeout: 15_000 });
+
     // No network, and the page is opened again: the device's copy, with the reading saved since.
     await context.setOffline(true);
     await page.reload();

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { InspectionContext } from "@/lib/inspections/context";
-import { lengthText, parseDecimal, toDraft, toMm, fromDraft } from "@/lib/inspections/form";
+import { lengthText, parseDecimal, ringInUnit, toDraft, toMm, fromDraft } from "@/lib/inspections/form";
 import { checkHours, derivedLinerHours, expectedEngineHours, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { inspectionDraftSchema, type InspectionDraft } from "@/lib/inspections/schemas";
 import { sniffImageType } from "@/lib/photos/sniff";
@@ -100,6 +100,30 @@ describe("the form keeps what was typed and sends only numbers", () => {
       ["s2", "fa", 600.4, "in"],
     ]);
     expect(inspectionDraftSchema.safeParse(out).success).toBe(true);
+  });
+  it("takes ring lengths in inches too (25.4 mm to the inch), converting what was typed when the sheet's unit is switched", () => {
+    const form = fromDraft(draft, ctx.profile);
+    form.rings["1"] = { unit: "in", closedGap: "0.1576", gapMeasuredIn: "liner_worn", gapLinerDiameter: "23.6614", groove: "0.0177", renewed: false, condition: "" };
+    const { draft: out, invalid } = toDraft(form, ctx.profile, draft.header);
+    expect(invalid).toEqual([]);
+    // 0.1576 in = 4.00304 mm, 23.6614 in = 600.99956 mm, 0.0177 in = 0.44958 mm, each kept to 1 µm.
+    expect(out.rings[0]).toMatchObject({ closedGapMm: 4.003, gapLinerDiameterMm: 601, grooveClearanceMm: 0.45 });
+    const inMm = ringInUnit(form.rings["1"], "mm");
+    expect([inMm.unit, inMm.closedGap, inMm.gapLinerDiameter, inMm.groove]).toEqual(["mm", "4.003", "601.00", "0.45"]);
+    // A half-typed value is left as typed, not lost.
+    expect(ringInUnit({ ...form.rings["1"], groove: "0,0x" }, "mm").groove).toBe("0,0x");
+  });
+  it("shows stored rings in inches when the readings were all typed in inches", () => {
+    const inches: InspectionDraft = {
+      ...draft,
+      readings: [{ stationKey: "s1", axisKey: "fa", diameterMm: 600.4, enteredUnit: "in", warningConfirmed: null }],
+      rings: [{ position: 1, closedGapMm: 4.001, gapMeasuredIn: "gauge_ring", gapLinerDiameterMm: null, grooveClearanceMm: 0.45, renewed: false, condition: null }],
+    };
+    const form = fromDraft(inches, ctx.profile);
+    expect(form.entryUnit).toBe("in");
+    expect([form.rings["1"].unit, form.rings["1"].closedGap, form.rings["1"].groove]).toEqual(["in", "0.1575", "0.0177"]);
+    const { draft: back } = toDraft(form, ctx.profile, inches.header);
+    expect(back.rings[0].closedGapMm).toBeCloseTo(4.001, 2);
   });
   it("lists everything that stands before submission", () => {
     const fields = submissionProblems(ctx, { ...draft, header: { ...draft.header } }).map((p) => p.field);
