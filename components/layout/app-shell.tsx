@@ -44,6 +44,11 @@ export function AppShell({
       </header>
       <OfflineSupport />
       <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-6 sm:px-6">{children}</main>
+      {/* On paper, say where and when the page came from, so a filed copy is never taken for the live record. */}
+      <footer className="mx-auto hidden w-full max-w-7xl px-4 pb-4 text-xs text-ink-soft sm:px-6 print:block">
+        From Kalibore, as it stood at {new Date().toISOString().slice(0, 16).replace("T", " ")} UTC, for {user.name}. The maker&apos;s
+        manual and the company&apos;s safety management system govern the work; this record supports them.
+      </footer>
     </div>
   );
 }

@@ -316,8 +316,8 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
         )}
         <p className="mt-2 text-xs text-ink-faint">
           Created by {insp.createdBy?.name ?? "–"}
-          {insp.submittedBy ? ` · submitted by ${insp.submittedBy.name}` : ""}
-          {insp.approvedBy ? ` · approved by ${insp.approvedBy.name}` : ""}.
+          {insp.submittedBy ? ` · submitted by ${insp.submittedBy.name}${insp.submittedAt ? ` on ${day(insp.submittedAt.slice(0, 10))}` : ""}` : ""}
+          {insp.approvedBy ? ` · approved by ${insp.approvedBy.name}${insp.approvedAt ? ` on ${day(insp.approvedAt.slice(0, 10))}` : ""}` : ""}.
         </p>
       </section>
     </>
