@@ -14,6 +14,8 @@ const PAGES = `kalibore-pages-${VERSION}`;
 const ASSETS = `kalibore-assets-${VERSION}`;
 /** Most page copies kept; the oldest go first. */
 const MAX_PAGES = 60;
+/** Most assets kept: a few releases' worth; older releases' files go first. */
+const MAX_ASSETS = 400;
 
 self.addEventListener("install", () => {
   self.skipWaiting();
@@ -61,7 +63,10 @@ async function cacheFirst(request) {
   const hit = await cache.match(request);
   if (hit) return hit;
   const response = await fetch(request);
-  if (response.ok && response.type === "basic") await cache.put(request, response.clone());
+  if (response.ok && response.type === "basic") {
+    await cache.put(request, response.clone());
+    void trim(cache, MAX_ASSETS);
+  }
   return response;
 }
 
@@ -71,7 +76,7 @@ async function networkFirstPage(request) {
     const response = await fetch(request);
     if (response.ok && response.type === "basic" && !response.redirected && isHtml(response)) {
       await cache.put(request.url, response.clone());
-      void trim(cache);
+      void trim(cache, MAX_PAGES);
     }
     return response;
   } catch {
@@ -83,9 +88,10 @@ async function networkFirstPage(request) {
 
 const isHtml = (response) => (response.headers.get("content-type") || "").includes("text/html");
 
-async function trim(cache) {
+/** Keeps the newest `max` entries (the Cache API lists them oldest first). */
+async function trim(cache, max) {
   const keys = await cache.keys();
-  for (let i = 0; i < keys.length - MAX_PAGES; i++) await cache.delete(keys[i]);
+  for (let i = 0; i < keys.length - max; i++) await cache.delete(keys[i]);
 }
 
 function offlineNotice() {
