@@ -142,6 +142,10 @@ self.addEventListener("message", (event) => {
         }
       })(),
     );
+  } else if (data.type === "claim") {
+    // A page that started loading while this worker was still activating is not controlled
+    // by it; it asks, and is taken over without a reload.
+    event.waitUntil(self.clients.claim());
   } else if (data.type === "forget-pages") {
     event.waitUntil(caches.delete(PAGES));
   }

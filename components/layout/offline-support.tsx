@@ -49,6 +49,8 @@ export function OfflineSupport() {
       try {
         await navigator.serviceWorker.register("/sw.js", { scope: "/" });
         const ready = await navigator.serviceWorker.ready;
+        // Loaded while the worker was still activating: ask it to take this page over too.
+        if (!navigator.serviceWorker.controller) ready.active?.postMessage({ type: "claim" });
         if (!cancelled) setRegistration(ready);
       } catch {
         // No service worker (private mode, old browser): the product works online as before.

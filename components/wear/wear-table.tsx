@@ -7,6 +7,21 @@ export type ReadingNote = { enteredUnit?: "mm" | "in"; warningConfirmed?: string
 
 const key = (stationKey: string, axisKey: string) => `${stationKey}|${axisKey}`;
 
+/** The change in wear at a cell since the previous gauging, signed, e.g. "+0.08 since". */
+function SinceChange({ wearMm, before }: { wearMm: number; before: number | undefined }) {
+  if (before === undefined) return null;
+  const change = wearMm - before;
+  const size = fixed(Math.abs(change), 2);
+  // A change that rounds to nothing carries no sign: "−0.00" would read as a fall.
+  const sign = size === "0.00" ? "" : change > 0 ? "+" : "−";
+  return (
+    <span className="block text-xs text-ink-soft">
+      {sign}
+      {size} since
+    </span>
+  );
+}
+
 /**
  * One gauging as the record shows it: per station and direction the reading as read,
  * referred to 20 °C, and the wear; ovality per station. A value at or over its limit is
@@ -20,6 +35,7 @@ export function WearTable({
   wearLimitMm,
   ovalityLimitMm,
   maxWearStationKey,
+  previousWear,
   notes,
 }: {
   stations: Station[];
@@ -29,6 +45,8 @@ export function WearTable({
   wearLimitMm: number;
   ovalityLimitMm: number;
   maxWearStationKey?: string | null;
+  /** Wear at each cell at the previous gauging of the same liner, to show the change since. */
+  previousWear?: Map<string, number>;
   notes?: Map<string, ReadingNote>;
 }) {
   const byCell = new Map(cells.map((c) => [key(c.stationKey, c.axisKey), c]));
@@ -81,6 +99,7 @@ export function WearTable({
                             {fixed(cell.wearMm, 2)}
                             {over ? <span className="sr-only"> (at or over the limit)</span> : null}
                           </span>
+                          {cell.usable ? <SinceChange wearMm={cell.wearMm} before={previousWear?.get(key(s.key, a.key))} /> : null}
                           <span className="block text-xs text-ink-faint md:hidden">{fixed(cell.rawMm, 2)}</span>
                           <span className="block text-xs text-ink-faint md:hidden">{fixed(cell.correctedMm, 2)}</span>
                           {note?.enteredUnit === "in" ? <span className="block text-xs text-ink-faint">entered in inches</span> : null}

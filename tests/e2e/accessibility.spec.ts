@@ -12,6 +12,9 @@ import { DEMO, signIn } from "./helpers";
 const WCAG_TAGS = ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"];
 
 async function expectNoViolations(page: Page, what: string) {
+  // After an in-app link the title arrives with the streamed page: check once it is there.
+  await expect(page).toHaveTitle(/Kalibore/);
+  await page.waitForLoadState("networkidle");
   // Phone first, so the page is left at desk width for the steps that follow.
   for (const viewport of [
     { width: 390, height: 844 },

@@ -135,6 +135,9 @@ test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul
     await chief.goto(`/inspections/${inspectionId}`);
     await chief.getByRole("button", { name: "Approve" }).click();
     await expect(chief.getByTestId("inspection-state")).toContainText("Approved");
+    // The record shows what changed since the liner's previous gauging (each cell was typed 0.03 mm up).
+    await expect(chief.getByTestId("since-previous")).toContainText("Against the previous gauging of this liner");
+    await expect(chief.getByText(/^\+0\.0[234] since$/).first()).toBeVisible();
     await expect(chief.getByRole("button", { name: "Amend…" })).toBeVisible();
     await shot(chief, `inspection-approved-${project}`);
 

@@ -55,6 +55,25 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
     { id: String(id), date: h.inspectedOn, engineHours: h.engineHours, linerHours: h.linerHours, gaugeTempC: h.gaugeTempC, linerTempC: h.linerTempC, readings: insp.draft.readings },
     ctx.asFitted ?? undefined,
   );
+  // The previous approved gauging of the same liner, so the chief sees what changed since.
+  const prev = ctx.previous && ctx.previous.linerId === insp.linerId ? ctx.previous : null;
+  const prevAnalysis = prev
+    ? analyseInspection(
+        toWearProfile(profile),
+        { id: String(prev.id), date: prev.inspectedOn, engineHours: prev.engineHours, linerHours: prev.linerHours, gaugeTempC: prev.gaugeTempC, linerTempC: prev.linerTempC, readings: prev.readings },
+        ctx.asFitted ?? undefined,
+      )
+    : null;
+  const since = prev && prevAnalysis
+    ? {
+        label: day(prev.inspectedOn),
+        hours: h.linerHours - prev.linerHours,
+        wear: new Map(prevAnalysis.cells.filter((cell) => cell.usable).map((cell) => [wearCellKey(cell.stationKey, cell.axisKey), cell.wearMm])),
+        maxWearMm: prevAnalysis.maxWear?.wearMm ?? null,
+      }
+    : null;
+  const sinceRate =
+    since && since.maxWearMm !== null && analysis.maxWear && since.hours > 0 ? ((analysis.maxWear.wearMm - since.maxWearMm) * 1000) / since.hours : null;
   const stationLabel = (key: string | undefined) => profile.stations.find((s) => s.key === key)?.label ?? key ?? "–";
   const open = insp.state === "draft" || insp.state === "returned";
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
@@ -144,6 +163,20 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
 
       <section className="mb-6">
         <h2 className="mb-2 text-lg font-semibold">Liner wear</h2>
+        {since ? (
+          <p className="mb-2 text-sm text-ink-soft" data-testid="since-previous">
+            Against the previous gauging of this liner, {since.label}, <span className="num">{hours(since.hours)} h</span> earlier: maximum wear{" "}
+            <span className="num font-medium text-ink">{fixed(since.maxWearMm)} → {fixed(analysis.maxWear?.wearMm)} mm</span>
+            {sinceRate !== null ? (
+              <>
+                , <span className="num font-medium text-ink">{fixed(sinceRate, 3)} mm/1000 h</span> over the interval
+              </>
+            ) : null}
+            . Each cell shows its change since then.
+          </p>
+        ) : (
+          <p className="mb-2 text-sm text-ink-soft">The first gauging of this liner on record: nothing earlier to compare with.</p>
+        )}
         <WearTable
           stations={profile.stations}
           axes={profile.axes}
@@ -152,6 +185,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
           wearLimitMm={profile.linerWearLimitMm}
           ovalityLimitMm={profile.ovalityLimitMm}
           maxWearStationKey={analysis.maxWear?.stationKey}
+          previousWear={since?.wear}
           notes={new Map(insp.draft.readings.map((r) => [wearCellKey(r.stationKey, r.axisKey), { enteredUnit: r.enteredUnit, warningConfirmed: r.warningConfirmed }]))}
         />
         <p className="mt-1 text-xs text-ink-faint">
