@@ -157,9 +157,10 @@ export function analyseLiner(
   result.latest = points.at(-1) ?? null;
   const withWear = points.filter((p) => p.maxWearMm !== null);
   const [prev, last] = withWear.slice(-2);
-  if (prev && last && last.linerHours > prev.linerHours) {
+  const rate = prev && last ? intervalRate(prev.maxWearMm!, prev.linerHours, last.maxWearMm!, last.linerHours) : null;
+  if (prev && last && rate !== null) {
     result.lastIntervalRate = {
-      mmPer1000h: ((last.maxWearMm! - prev.maxWearMm!) * 1000) / (last.linerHours - prev.linerHours),
+      mmPer1000h: rate,
       fromInspectionId: prev.inspectionId,
       toInspectionId: last.inspectionId,
       steady: prev.steady && last.steady,
@@ -168,6 +169,11 @@ export function analyseLiner(
   result.wear = analyseMetric(points, "wear", profile.linerWearLimitMm, needed, issues);
   result.ovality = analyseMetric(points, "ovality", profile.ovalityLimitMm, needed, issues);
   return result;
+}
+
+/** Wear rate between two gaugings, in mm per 1000 liner hours; null unless the liner hours rose. */
+export function intervalRate(fromWearMm: number, fromLinerHours: number, toWearMm: number, toLinerHours: number): number | null {
+  return toLinerHours > fromLinerHours ? ((toWearMm - fromWearMm) * 1000) / (toLinerHours - fromLinerHours) : null;
 }
 
 function analyseMetric(points: LinerPoint[], metric: Metric, limitMm: number, needed: number, issues: LinerIssue[]): MetricAnalysis {

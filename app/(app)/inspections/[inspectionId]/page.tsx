@@ -15,6 +15,7 @@ import { getInspectionForUser, getStoredUnitSummary, listInspectionAudit } from 
 import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseInspection } from "@/lib/wear/inspection";
+import { intervalRate } from "@/lib/wear/liner";
 import { normaliseClosedGap } from "@/lib/rings/rings";
 import { OverLimitMark, CautionMark } from "@/components/inspections/marks";
 
@@ -73,7 +74,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
       }
     : null;
   const sinceRate =
-    since && since.maxWearMm !== null && analysis.maxWear && since.hours > 0 ? ((analysis.maxWear.wearMm - since.maxWearMm) * 1000) / since.hours : null;
+    prev && since && since.maxWearMm !== null && analysis.maxWear ? intervalRate(since.maxWearMm, prev.linerHours, analysis.maxWear.wearMm, h.linerHours) : null;
   const stationLabel = (key: string | undefined) => profile.stations.find((s) => s.key === key)?.label ?? key ?? "–";
   const open = insp.state === "draft" || insp.state === "returned";
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
