@@ -1,7 +1,7 @@
 "use client";
 
 import { usePathname } from "next/navigation";
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 
 /**
  * Pages kept on this device whenever they are visited, even by an in-app link (which the worker
@@ -10,13 +10,17 @@ import { useEffect, useState } from "react";
  */
 const KEEP_ON_VISIT = [/^\/$/, /^\/inspections\/\d+\/edit$/];
 
-function keepThisPage(registration: ServiceWorkerRegistration, pathname: string) {
-  // This page's assets may have loaded before the worker could see them: list them too.
+/**
+ * Hands the worker this page's assets (they may have loaded before it could see them; it keeps
+ * each once) and, for a page needed offline, its address, unless it is `loadedByWorker`: a document
+ * that came through the worker, which its fetch handler has kept already.
+ */
+function keepThisPage(registration: ServiceWorkerRegistration, pathname: string, loadedByWorker: string | null) {
   const assets = performance
     .getEntriesByType("resource")
     .map((e) => e.name)
     .filter((name) => name.startsWith(location.origin));
-  const page = KEEP_ON_VISIT.some((re) => re.test(pathname)) ? pathname : null;
+  const page = pathname !== loadedByWorker && KEEP_ON_VISIT.some((re) => re.test(pathname)) ? pathname : null;
   registration.active?.postMessage({ type: "keep", assets, page });
 }
 
@@ -41,10 +45,14 @@ export function OfflineSupport() {
 
   const pathname = usePathname();
   const [registration, setRegistration] = useState<ServiceWorkerRegistration | null>(null);
+  // The path of this document when it came through the worker (its fetch handler kept it);
+  // used once, for the first visit only.
+  const loadedByWorker = useRef<string | null>(null);
 
   useEffect(() => {
     if (process.env.NODE_ENV !== "production" || !("serviceWorker" in navigator)) return;
     let cancelled = false;
+    if (navigator.serviceWorker.controller) loadedByWorker.current = location.pathname;
     (async () => {
       try {
         await navigator.serviceWorker.register("/sw.js", { scope: "/" });
@@ -62,7 +70,9 @@ export function OfflineSupport() {
   }, []);
 
   useEffect(() => {
-    if (registration) keepThisPage(registration, pathname);
+    if (!registration) return;
+    keepThisPage(registration, pathname, loadedByWorker.current);
+    loadedByWorker.current = null;
   }, [registration, pathname]);
 
   if (online) return null;
