@@ -1,7 +1,7 @@
 "use client";
 
 import type { ContextProfile } from "@/lib/inspections/context";
-import { emptyRing, parseDecimal, toMm, type RingEntry } from "@/lib/inspections/form";
+import { emptyRing, lengthText, parseDecimal, toMm, type RingEntry } from "@/lib/inspections/form";
 import { RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/schemas";
 import { normaliseClosedGap, type RingState } from "@/lib/rings/rings";
@@ -31,6 +31,31 @@ function StateLine({ state, newMin, newMax, limit }: { state: RingState | null; 
     </p>
   );
 }
+
+/** A length typed on the ring sheet: big, right-aligned, decimal keypad, marked when it is not a number. */
+function LengthInput({
+  invalid,
+  className,
+  onText,
+  ...props
+}: Omit<React.InputHTMLAttributes<HTMLInputElement>, "onChange"> & { invalid: boolean; onText: (text: string) => void }) {
+  return (
+    <input
+      type="text"
+      inputMode="decimal"
+      autoComplete="off"
+      aria-invalid={invalid || undefined}
+      onChange={(e) => onText(e.target.value)}
+      className={cn(
+        "num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution",
+        className,
+      )}
+      {...props}
+    />
+  );
+}
+
+const notANumber = <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p>;
 
 export const ringInputId = (position: number, what: "gap" | "groove" | "linerd") => `ring-${position}-${what}`;
 
@@ -77,20 +102,16 @@ export function RingTable({
                 <label htmlFor={ringInputId(spec.position, "gap")} className="block text-sm font-medium text-ink-soft">
                   Closed gap ({unitText})
                 </label>
-                <input
+                <LengthInput
                   id={ringInputId(spec.position, "gap")}
-                  type="text"
-                  inputMode="decimal"
                   enterKeyHint="next"
-                  autoComplete="off"
                   readOnly={readOnly}
                   value={r.closedGap}
-                  aria-invalid={gap === "invalid" || undefined}
-                  onChange={(e) => onChange(spec.position, { closedGap: e.target.value })}
+                  invalid={gap === "invalid"}
+                  onText={(closedGap) => onChange(spec.position, { closedGap })}
                   onKeyDown={(e) => focusNext(e, ringInputId(spec.position, "groove"))}
-                  className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution"
                 />
-                {gap === "invalid" ? <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p> : null}
+                {gap === "invalid" ? notANumber : null}
                 {unit === "in" && typeof gap === "number" ? <p className="num text-sm text-ink-faint">= {gap.toFixed(3)} mm as read</p> : null}
                 <StateLine state={live.gap} newMin={spec.gapNewMinMm} newMax={spec.gapNewMaxMm} limit={spec.gapLimitMm} />
               </div>
@@ -98,20 +119,16 @@ export function RingTable({
                 <label htmlFor={ringInputId(spec.position, "groove")} className="block text-sm font-medium text-ink-soft">
                   Groove axial clearance ({unitText})
                 </label>
-                <input
+                <LengthInput
                   id={ringInputId(spec.position, "groove")}
-                  type="text"
-                  inputMode="decimal"
                   enterKeyHint="next"
-                  autoComplete="off"
                   readOnly={readOnly}
                   value={r.groove}
-                  aria-invalid={groove === "invalid" || undefined}
-                  onChange={(e) => onChange(spec.position, { groove: e.target.value })}
+                  invalid={groove === "invalid"}
+                  onText={(groove) => onChange(spec.position, { groove })}
                   onKeyDown={(e) => focusNext(e, next ? ringInputId(next.position, "gap") : null)}
-                  className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution"
                 />
-                {groove === "invalid" ? <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p> : null}
+                {groove === "invalid" ? notANumber : null}
                 {unit === "in" && typeof groove === "number" ? <p className="num text-sm text-ink-faint">= {groove.toFixed(3)} mm</p> : null}
                 <StateLine state={live.groove} newMin={spec.grooveNewMinMm} newMax={spec.grooveNewMaxMm} limit={spec.grooveLimitMm} />
               </div>
@@ -145,17 +162,14 @@ export function RingTable({
                   <label htmlFor={ringInputId(spec.position, "linerd")} className="block text-sm font-medium text-ink-soft">
                     Liner diameter where the gap was measured ({unitText})
                   </label>
-                  <input
+                  <LengthInput
                     id={ringInputId(spec.position, "linerd")}
-                    type="text"
-                    inputMode="decimal"
-                    autoComplete="off"
                     readOnly={readOnly}
                     value={r.gapLinerDiameter ?? ""}
-                    aria-invalid={linerD === "invalid" || undefined}
-                    onChange={(e) => onChange(spec.position, { gapLinerDiameter: e.target.value })}
-                    placeholder={`e.g. ${unit === "mm" ? (profile.boreMm + 1).toFixed(2) : ((profile.boreMm + 1) / 25.4).toFixed(4)}`}
-                    className="num mt-1 block min-h-12 w-full rounded-md border border-ink-line bg-paper-raised px-3 text-right text-lg aria-[invalid=true]:border-2 aria-[invalid=true]:border-caution sm:w-1/2"
+                    invalid={linerD === "invalid"}
+                    onText={(gapLinerDiameter) => onChange(spec.position, { gapLinerDiameter })}
+                    placeholder={`e.g. ${lengthText(profile.boreMm + 1, unit)}`}
+                    className="sm:w-1/2"
                   />
                   <p className="mt-1 text-sm text-ink-soft">
                     {referred !== null && typeof gap === "number" && typeof linerD === "number" ? (
