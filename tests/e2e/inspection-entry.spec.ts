@@ -17,34 +17,40 @@ type Analysis = {
 
 const status = (page: Page) => page.locator("[data-save-status]");
 
+/**
+ * Chooses a cylinder on the new-inspection page, as the engineer would, and fills the header
+ * with today's counter from the log and 20 °C temperatures. Returns the unit's analysis (last
+ * time's readings) and a reading `step` mm above last time's at a cell.
+ */
+async function startInspection(page: Page, cylinder: string, crew: string, step: number) {
+  await page.goto("/inspections/new");
+  await expect(page.getByRole("heading", { name: "New inspection" })).toBeVisible();
+  await page.getByRole("link", { name: new RegExp(cylinder) }).first().click();
+  await expect(page).toHaveURL(/unit=\d+/);
+  const unitId = Number(new URL(page.url()).searchParams.get("unit"));
+  const analysis = (await (await page.request.get(`/api/units/${unitId}/analysis`)).json()) as Analysis;
+  const engine = await (await page.request.get(`/api/engines/${analysis.context.engineId}/analysis`)).json();
+  const last = analysis.series.at(-1)?.cells ?? [];
+  const value = (stationKey: string, axisKey: string) => {
+    const prev = last.find((c) => c.stationKey === stationKey && c.axisKey === axisKey)?.correctedMm ?? analysis.profile.boreMm + 0.2;
+    return Math.round((prev + step) * 100) / 100;
+  };
+  await page.getByLabel("Engine running hours (counter)").fill(String(Math.round(engine.latestHours.engineHours)));
+  await page.getByLabel("Crew (who gauged)").fill(crew);
+  await page.getByLabel("Micrometer temperature").fill("20");
+  await page.getByLabel("Liner temperature").fill("20");
+  return { unitId, analysis, value };
+}
+
 test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul", () => {
   test("an engineer records a full inspection through an offline spell; the chief approves it @tablet", async ({ page, browser, context }, info) => {
     test.setTimeout(180_000);
     const project = info.project.name;
     await signIn(page, DEMO.engineer);
 
-    // Choose the unit on the new-inspection page, as the engineer would.
-    await page.goto("/inspections/new");
-    await expect(page.getByRole("heading", { name: "New inspection" })).toBeVisible();
-    await page.getByRole("link", { name: /Cylinder 3/ }).first().click();
-    await expect(page).toHaveURL(/unit=\d+/);
-    const unitId = Number(new URL(page.url()).searchParams.get("unit"));
-
-    // What the record should look like: last time's readings and today's counter from the log.
-    const analysis = (await (await page.request.get(`/api/units/${unitId}/analysis`)).json()) as Analysis;
-    const engine = await (await page.request.get(`/api/engines/${analysis.context.engineId}/analysis`)).json();
-    const engineHours = Math.round(engine.latestHours.engineHours);
-    const last = analysis.series.at(-1)?.cells ?? [];
-    const { stations, axes, rings, boreMm } = analysis.profile;
-    const value = (stationKey: string, axisKey: string) => {
-      const prev = last.find((c) => c.stationKey === stationKey && c.axisKey === axisKey)?.correctedMm ?? boreMm + 0.2;
-      return Math.round((prev + 0.03) * 100) / 100;
-    };
-
-    await page.getByLabel("Engine running hours (counter)").fill(String(engineHours));
-    await page.getByLabel("Crew (who gauged)").fill("3/E and fitter");
-    await page.getByLabel("Micrometer temperature").fill("20");
-    await page.getByLabel("Liner temperature").fill("20");
+    // What the record should look like: last time's readings plus 0.03 mm, today's counter from the log.
+    const { unitId, analysis, value } = await startInspection(page, "Cylinder 3", "3/E and fitter", 0.03);
+    const { stations, axes, rings } = analysis.profile;
     await expect(page.getByText(/Agrees with the running-hours log/)).toBeVisible();
     await shot(page, `inspection-new-${project}`);
     await page.getByRole("button", { name: "Open the gauging sheet" }).click();
@@ -155,22 +161,9 @@ test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul
     test.setTimeout(150_000);
     await page.setViewportSize({ width: 820, height: 1180 });
     await signIn(page, DEMO.engineer);
-    await page.goto("/inspections/new");
-    await page.getByRole("link", { name: /Cylinder 5/ }).first().click();
-    await expect(page).toHaveURL(/unit=\d+/);
-    const unitId = Number(new URL(page.url()).searchParams.get("unit"));
-    const analysis = (await (await page.request.get(`/api/units/${unitId}/analysis`)).json()) as Analysis;
-    const engine = await (await page.request.get(`/api/engines/${analysis.context.engineId}/analysis`)).json();
-    const { stations, axes, boreMm } = analysis.profile;
-    const last = analysis.series.at(-1)?.cells ?? [];
-    const value = (i: number) => {
-      const prev = last.find((c) => c.stationKey === stations[i].key && c.axisKey === axes[0].key)?.correctedMm ?? boreMm + 0.2;
-      return (Math.round((prev + 0.02) * 100) / 100).toFixed(2);
-    };
-    await page.getByLabel("Engine running hours (counter)").fill(String(Math.round(engine.latestHours.engineHours)));
-    await page.getByLabel("Crew (who gauged)").fill("3/E");
-    await page.getByLabel("Micrometer temperature").fill("20");
-    await page.getByLabel("Liner temperature").fill("20");
+    const started = await startInspection(page, "Cylinder 5", "3/E", 0.02);
+    const { stations, axes } = started.analysis.profile;
+    const value = (i: number) => started.value(stations[i].key, axes[0].key).toFixed(2);
     await page.getByRole("button", { name: "Open the gauging sheet" }).click();
     await expect(page).toHaveURL(/\/inspections\/\d+\/edit$/);
     const sheetUrl = page.url();
