@@ -14,6 +14,11 @@ export MAIL_FAKE_DIR="$TEST_DATA_DIR/mail" S3_FAKE_DIR="$TEST_DATA_DIR/s3"
 export E2E_PORT="${TEST_WEB_PORT:-3100}"
 export AUTH_RATE_LIMIT_MAX=5 AUTH_RATE_LIMIT_WINDOW_S=60
 RESULTS="$TEST_DATA_DIR/results"
+# For development only: TEST_SUITES="unit integration" runs a part, TEST_FILTER narrows
+# vitest to matching files and Playwright to matching spec files. CI runs everything.
+TEST_SUITES="${TEST_SUITES:-unit integration e2e}"
+TEST_FILTER="${TEST_FILTER:-}"
+runs() { case " $TEST_SUITES " in *" $1 "*) return 0 ;; *) return 1 ;; esac; }
 
 cleanup() {
   local code=$?
@@ -37,11 +42,20 @@ start_mariadb "$TEST_DATA_DIR/mariadb" "$DB_PORT" kalibore_it "$DB_USER" "$DB_PA
 mariadb --no-defaults --socket="$MARIADB_SOCKET" -uroot -e "CREATE DATABASE kalibore_e2e CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'127.0.0.1'; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'localhost'; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'127.0.0.1'; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'localhost';"
 
 status=0
-say "unit tests"
-npx vitest run --project unit --reporter=default --reporter=json --outputFile.json="$RESULTS/unit.json" || status=1
+if runs unit; then
+  say "unit tests"
+  npx vitest run --project unit --reporter=default --reporter=json --outputFile.json="$RESULTS/unit.json" $TEST_FILTER || status=1
+fi
 
-say "integration tests (MariaDB on 127.0.0.1:$DB_PORT, S3 fake on $S3_FAKE_PORT, SMTP fake on $SMTP_FAKE_PORT)"
-DB_NAME=kalibore_it npx vitest run --project integration --reporter=default --reporter=json --outputFile.json="$RESULTS/integration.json" || status=1
+if runs integration; then
+  say "integration tests (MariaDB on 127.0.0.1:$DB_PORT, S3 fake on $S3_FAKE_PORT, SMTP fake on $SMTP_FAKE_PORT)"
+  DB_NAME=kalibore_it npx vitest run --project integration --reporter=default --reporter=json --outputFile.json="$RESULTS/integration.json" $TEST_FILTER || status=1
+fi
+
+if ! runs e2e; then
+  node scripts/test-summary.mjs "$RESULTS" --only "$TEST_SUITES" || status=1
+  exit "$status"
+fi
 
 say "end-to-end tests: production build, demo data, Chromium"
 export DB_NAME=kalibore_e2e APP_URL="http://localhost:$E2E_PORT"
@@ -51,7 +65,7 @@ export AUTH_RATE_LIMIT_MAX=60
 NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev/null
 node --conditions=react-server --import tsx scripts/seed.ts --if-empty >/dev/null
 npx next build >"$RESULTS/build.log" 2>&1 || { tail -n 40 "$RESULTS/build.log"; fail "next build failed"; }
-PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" npx playwright test --reporter=list,json || status=1
+PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" npx playwright test --reporter=list,json $TEST_FILTER || status=1
 
 node scripts/test-summary.mjs "$RESULTS" || status=1
 exit "$status"
