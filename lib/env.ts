@@ -52,6 +52,7 @@ export const serverEnvSchema = z.object({
   BETTER_AUTH_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
   AUTH_RATE_LIMIT_MAX: count(5, 1, "a whole number of attempts, at least 1"),
   AUTH_RATE_LIMIT_WINDOW_S: count(60, 1, "a whole number of seconds, at least 1"),
+  TRUSTED_PROXY_HEADER: z.string().regex(/^[A-Za-z0-9-]+$/, "must be a header name such as X-Forwarded-For").optional(),
   SESSION_MAX_AGE_S: count(60 * 60 * 12, 300, "a whole number of seconds, at least 300"),
 })
   .superRefine((env, ctx) => {
