@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PhotoPanel } from "@/components/inspections/photo-panel";
 import { WorkflowActions } from "@/components/inspections/workflow-actions";
+import { approvalRefusal } from "@/lib/inspections/approval";
 import { BandBadge } from "@/components/wear/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
@@ -80,9 +81,12 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
   const c = insp.draft.checklist;
   const dev = rodNutDeviation(profile, c.rodNutPressureBar);
+  const approvalParties = { createdBy: insp.createdBy?.id ?? null, submittedBy: insp.submittedBy?.id ?? null };
+  // A chief engineer who entered or submitted this record is told who approves it instead.
+  const ownRecordNote = insp.state === "submitted" && can(user.role, "inspection.approve") ? approvalRefusal(user, approvalParties) : null;
   const allowed = {
     edit: can(user.role, "inspection.editDraft"),
-    approve: can(user.role, "inspection.approve"),
+    approve: can(user.role, "inspection.approve") && !approvalRefusal(user, approvalParties),
     return: can(user.role, "inspection.return"),
     amend: can(user.role, "inspection.amend"),
   };
@@ -124,6 +128,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
           </p>
         ) : null}
         <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} />
+        {ownRecordNote ? <p className="text-sm text-ink-soft">{ownRecordNote}</p> : null}
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
 
