@@ -2,6 +2,7 @@ import "server-only";
 import { loadProfiles } from "@/lib/analysis/load";
 import type { Knex } from "knex";
 import type { UnitSummary } from "@/lib/analysis/compute";
+import { canSeeVessel, whereVesselInScope } from "@/lib/auth/scope";
 import type { CurrentUser } from "@/lib/auth/session";
 import { db } from "@/lib/db/knex";
 import type { ContextProfile, InspectionContext, PreviousInspection } from "./context";
@@ -10,8 +11,6 @@ import { emptyChecklist } from "./schemas";
 
 type Conn = Knex | Knex.Transaction;
 
-// Same rule as canSeeVessel in lib/auth/session.ts, kept here so scripts can load this module without Next.js.
-const canSeeVessel = (user: CurrentUser, vesselId: number) => user.vessels === "all" || user.vessels.includes(vesselId);
 
 const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 const iso = (v: unknown) => (v == null ? null : v instanceof Date ? v.toISOString() : new Date(String(v)).toISOString());
@@ -459,8 +458,7 @@ export async function listUnitsToInspect(user: CurrentUser) {
       "l.serial as linerSerial",
       "a.last_inspected_on as lastInspectedOn",
     );
-  if (user.vessels !== "all") q.whereIn("v.id", user.vessels.length ? user.vessels : [-1]);
-  const rows = await q;
+  const rows = await whereVesselInScope(q, user, "v.id");
   return rows.map((r) => ({ ...r, nextOverhaulEngineHours: num(r.nextOverhaulEngineHours) })) as {
     id: number;
     cylinderNo: number;
