@@ -12,7 +12,7 @@ import type { InspectionDto } from "@/lib/inspections/schemas";
 import { day } from "@/lib/format";
 import { formatFixed, type LengthUnit } from "@/lib/units/length";
 import { formatRunningHours } from "@/lib/wear/calendar";
-import { analyseInspection } from "@/lib/wear/inspection";
+import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { cn } from "@/lib/utils";
 import { ChecklistForm } from "./checklist-form";
 import { LinerGrid } from "./liner-grid";
@@ -65,20 +65,7 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
   const { draft } = useMemo(() => toDraft(form, profile, initial.draft.header), [form, profile, initial.draft.header]);
   const wearProfile = useMemo(() => toWearProfile(profile), [profile]);
   const analysis = useMemo(
-    () =>
-      analyseInspection(
-        wearProfile,
-        {
-          id: String(initial.id),
-          date: draft.header.inspectedOn,
-          engineHours: draft.header.engineHours,
-          linerHours: draft.header.linerHours,
-          gaugeTempC: draft.header.gaugeTempC,
-          linerTempC: draft.header.linerTempC,
-          readings: draft.readings,
-        },
-        ctx.asFitted ?? undefined,
-      ),
+    () => analyseGauging(wearProfile, toGauging(initial.id, draft.header, draft.readings), ctx.asFitted),
     [wearProfile, draft, initial.id, ctx.asFitted],
   );
   const warnings = useMemo(() => readingWarnings(ctx, draft), [ctx, draft]);
