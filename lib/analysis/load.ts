@@ -211,6 +211,7 @@ export async function loadUnitInputs(
       })),
       hoursLog: logByEngine.get(u.engine_id) ?? [],
       nextOverhaulEngineHours: u.next_overhaul_engine_hours === null ? null : Number(u.next_overhaul_engine_hours),
+      overhaulIntervalHours: profile.overhaulIntervalHours,
     };
   });
   return { units: out, profiles };
