@@ -4,7 +4,7 @@ import { recomputeUnits } from "@/lib/analysis/recompute";
 import { writeAudit } from "@/lib/audit/mutations";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
-import { analyseInspection } from "@/lib/wear/inspection";
+import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { toWearProfile, type InspectionContext } from "./context";
 import { DEFAULT_TALLY_LABELS } from "./form";
 import { loadInspectionContext } from "./context-queries";
@@ -284,15 +284,7 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       );
     }
     await recomputeUnits(trx, { unitIds: [row.unitId] });
-    const analysis = analyseInspection(toWearProfile(ctx.profile), {
-      id: String(id),
-      date: draft.header.inspectedOn,
-      engineHours: draft.header.engineHours,
-      linerHours: draft.header.linerHours,
-      gaugeTempC: draft.header.gaugeTempC,
-      linerTempC: draft.header.linerTempC,
-      readings: draft.readings,
-    });
+    const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
     await writeAudit(
       {
         actor,
