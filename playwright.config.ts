@@ -31,10 +31,10 @@ export default defineConfig({
     { name: "tablet", use: { viewport: { width: 820, height: 1180 }, hasTouch: true, isMobile: false, launchOptions }, grep: /@tablet/ },
   ],
   webServer: {
-    command: `node_modules/.bin/next start -p ${port} -H 127.0.0.1`,
+    command: `node --import tsx scripts/serve.ts`,
     url: `${baseURL}/api/health`,
     reuseExistingServer: !process.env.CI,
     timeout: 60_000,
-    env: { ...process.env, APP_URL: baseURL } as Record<string, string>,
+    env: { ...process.env, APP_URL: baseURL, PORT: String(port), HOST: "127.0.0.1" } as Record<string, string>,
   },
 });

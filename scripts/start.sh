@@ -64,7 +64,9 @@ else
   say "production build is up to date"
 fi
 
-node_modules/.bin/next start -p "$PORT" -H "$HOST" &
+# Our server in front of Next.js: it records each client's address from the socket (or
+# TRUSTED_PROXY_HEADER), which `next start` cannot; see lib/auth/client-address.ts.
+node --import tsx scripts/serve.ts &
 WEB_PID=$!
 STARTED_PIDS+=("$WEB_PID")
 printf '%s\n' "${STARTED_PIDS[@]}" >"$RUN_DIR/start.pids"

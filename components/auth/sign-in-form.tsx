@@ -23,7 +23,8 @@ export function SignInForm({ next }: { next: string }) {
     if (err) {
       setPending(false);
       // One message for a wrong address or a wrong password: no hint which exists.
-      if (err.status === 429) setError("Too many attempts. Wait a minute, then try again.");
+      // Too many from this device (a minute), or on this account (its pause grows with each failure).
+      if (err.status === 429) setError(err.code === "ACCOUNT_SIGN_IN_THROTTLED" && err.message ? err.message : "Too many attempts. Wait a minute, then try again.");
       else if (err.status && err.status >= 500) setError("The server could not be reached. Try again.");
       else setError("The e-mail address or password is not right.");
       return;

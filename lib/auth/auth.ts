@@ -98,7 +98,7 @@ export const auth = betterAuth({
         const s = reservation.retryAfterS;
         throw new APIError(
           "TOO_MANY_REQUESTS",
-          { message: `Too many failed sign-ins for this account. Try again in ${s} second${s === 1 ? "" : "s"}.`, code: "ACCOUNT_SIGN_IN_THROTTLED" },
+          { message: `Too many attempts on this account. Try again in ${s} second${s === 1 ? "" : "s"}.`, code: "ACCOUNT_SIGN_IN_THROTTLED" },
           { "Retry-After": String(s) },
         );
       }

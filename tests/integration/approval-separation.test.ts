@@ -82,7 +82,7 @@ const CELLS: [Who, Who, Who, 200 | 403][] = [
   ["engineer", "engineer", "admin", 403],
   ["engineer", "engineer", "chief2", 403], // chief of another vessel
   ["engineer", "engineer", "engineer2", 403],
-  // the chief gauged and submitted himself
+  // the chief gauged and submitted it
   ["chief", "chief", "chief", 403],
   ["chief", "chief", "chiefB", 200],
   ["chief", "chief", "supt", 200],
@@ -111,7 +111,7 @@ describe("who may approve an inspection", () => {
     else expect(row).toMatchObject({ state: "submitted", approved_by: null });
   });
 
-  it("tells a chief engineer why he may not approve his own record, and who will", async () => {
+  it("tells chief engineers why they may not approve their own record, and who will", async () => {
     const id = await submittedRecord("chief", "chief");
     const res = await approveAs("chief", id);
     expect(res.status).toBe(403);

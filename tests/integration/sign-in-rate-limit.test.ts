@@ -80,7 +80,7 @@ describe("per-account limit", () => {
     // Even the right password waits now: the account rests, whoever asks.
     const refused = await signIn(plain, victim, PASSWORD, "127.0.1.100");
     expect(refused.status).toBe(429);
-    expect(JSON.parse(refused.body).message).toMatch(/Too many failed sign-ins for this account\. Try again in \d+ seconds/);
+    expect(JSON.parse(refused.body).message).toMatch(/Too many attempts on this account\. Try again in \d+ seconds/);
     expect(Number(refused.headers["retry-after"])).toBeGreaterThan(SIGN_IN_THROTTLE.baseDelayS - 5);
     expect(Number(refused.headers["retry-after"])).toBeLessThanOrEqual(SIGN_IN_THROTTLE.baseDelayS);
     // Someone else, from an address the guesses came from, signs in as usual.
