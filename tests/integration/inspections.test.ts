@@ -153,10 +153,10 @@ describe("creating an inspection", () => {
     expect(text.body.error).toMatch(/engine running hours must be a number/);
   });
 
-  it("answers 403 to a role that cannot create and to crew of another vessel", async () => {
+  it("answers 403 to a role that cannot create, and 404 to crew of another vessel (as for a unit that is not there)", async () => {
     const unitId = await freshUnit();
     expect((await createDraft(unitId, "supt")).status).toBe(403);
-    expect((await createDraft(unitId, "engineer2")).status).toBe(403);
+    expect((await createDraft(unitId, "engineer2")).status).toBe(404);
     expect((await createDraft(unitId, null)).status).toBe(401);
   });
 });
@@ -285,7 +285,7 @@ describe("submit, approve, return", () => {
     const unitId = await freshUnit();
     const { id, draft } = await submitted(unitId, 0.62);
     expect((await call("engineer", approveRoute, "POST", `/api/inspections/${id}/approve`, {}, id)).status).toBe(403);
-    expect((await call("chief2", approveRoute, "POST", `/api/inspections/${id}/approve`, {}, id)).status).toBe(403);
+    expect((await call("chief2", approveRoute, "POST", `/api/inspections/${id}/approve`, {}, id)).status).toBe(404);
     const ok = await call("chief", approveRoute, "POST", `/api/inspections/${id}/approve`, {}, id);
     expect(ok.status, JSON.stringify(ok.body)).toBe(200);
     const again = await call("chief", approveRoute, "POST", `/api/inspections/${id}/approve`, {}, id);
@@ -375,7 +375,7 @@ describe("reading", () => {
     const created = await createDraft(unitId);
     const id = created.body.id as number;
     expect((await call("supt", getRoute, "GET", `/api/inspections/${id}`, undefined, id)).status).toBe(200);
-    expect((await call("engineer2", getRoute, "GET", `/api/inspections/${id}`, undefined, id)).status).toBe(403);
+    expect((await call("engineer2", getRoute, "GET", `/api/inspections/${id}`, undefined, id)).status).toBe(404);
     expect((await call("engineer", getRoute, "GET", `/api/inspections/999999`, undefined, 999999)).status).toBe(404);
   });
 });
