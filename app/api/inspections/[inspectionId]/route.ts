@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { notFound, withRoute } from "@/lib/auth/api";
 import { inspectionIdOf, readBody, vesselOfInspection } from "@/lib/inspections/http";
-import { saveDraft } from "@/lib/inspections/mutations";
+import { discardDraft, saveDraft } from "@/lib/inspections/mutations";
 import { getInspectionDto } from "@/lib/inspections/queries";
 import { saveDraftSchema } from "@/lib/inspections/schemas";
 
@@ -28,5 +28,12 @@ export const PUT = withRoute<P>(
     const saved = await saveDraft(user, inspectionIdOf(params), revision, draft);
     return NextResponse.json(saved);
   },
+  { vesselOf: vesselOfInspection },
+);
+
+// DELETE /api/inspections/:inspectionId – discard a draft opened by mistake (its author only; audited)
+export const DELETE = withRoute<P>(
+  "DELETE /api/inspections/[inspectionId]",
+  async (_req, { user, params }) => NextResponse.json(await discardDraft(user, inspectionIdOf(params))),
   { vesselOf: vesselOfInspection },
 );
