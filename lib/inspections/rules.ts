@@ -108,6 +108,11 @@ export function checkHours(ctx: InspectionContext, header: Pick<InspectionHeader
     });
   }
   if (Number.isFinite(linerHours) && linerHours < 0) errors.push({ field: "header.linerHours", message: "Liner hours cannot be negative." });
+  // A liner cannot be gauged before it was fitted (the engine's own history starts later still).
+  const fittedOn = String(ctx.liner.installedOn ?? "").slice(0, 10);
+  if (fittedOn && header.inspectedOn && header.inspectedOn < fittedOn) {
+    errors.push({ field: "header.inspectedOn", message: `The inspection date ${header.inspectedOn} is before liner ${ctx.liner.serial} was fitted on ${fittedOn}: check the date.` });
+  }
   return { errors, warnings, expected, derivedLinerHours: derived };
 }
 
