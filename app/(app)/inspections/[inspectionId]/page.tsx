@@ -238,13 +238,13 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                     <td className="num px-2 py-2 text-right align-top sm:px-3">
                       {r?.closedGapMm != null ? <span className={tone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
                       {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
-                      {r ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
+                      {r?.gapMeasuredIn ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span>
                       ) : null}
                     </td>
                     <td className="hidden px-3 py-2 align-top md:table-cell">
-                      {r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
+                      {r?.gapMeasuredIn ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint">
                           at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring
