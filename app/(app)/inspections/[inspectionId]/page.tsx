@@ -14,7 +14,8 @@ import { toWearProfile } from "@/lib/inspections/context";
 import { listInspectionAudit } from "@/lib/inspections/audit-queries";
 import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
-import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
+import { approvalFigures } from "@/lib/inspections/approval";
+import { openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseInspection } from "@/lib/wear/inspection";
 import { intervalRate } from "@/lib/wear/liner";
@@ -82,6 +83,18 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
   const c = insp.draft.checklist;
   const dev = rodNutDeviation(profile, c.rodNutPressureBar);
+  const approval =
+    insp.state === "submitted"
+      ? approvalFigures({
+          wearLimitMm: profile.linerWearLimitMm,
+          inspectedOn: h.inspectedOn,
+          linerHours: h.linerHours,
+          maxWear: analysis.maxWear ? { wearMm: analysis.maxWear.wearMm, at: stationLabel(analysis.maxWear.stationKey) } : null,
+          previous: prev && since ? { maxWearMm: since.maxWearMm, linerHours: prev.linerHours, inspectedOn: prev.inspectedOn } : null,
+          hoursLog: ctx.hoursLog,
+          cautions: openCautions(ctx, insp.draft),
+        })
+      : undefined;
   const allowed = {
     edit: can(user.role, "inspection.editDraft"),
     approve: can(user.role, "inspection.approve"),
@@ -125,7 +138,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <strong>Returned for correction:</strong> {insp.returnComment}
           </p>
         ) : null}
-        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} />
+        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} approval={approval} />
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
 
