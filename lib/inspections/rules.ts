@@ -1,3 +1,4 @@
+import { inspectionAnalysisInput, toGauging } from "@/lib/analysis/input";
 import { normaliseClosedGap, ringState, type RingState } from "@/lib/rings/rings";
 import { formatRunningHours, parseIsoDate, runningHoursPerDay, type RunningHoursEntry } from "@/lib/wear/calendar";
 import { temperatureCorrection } from "@/lib/wear/correction";
@@ -162,7 +163,8 @@ export function readingChecks(ctx: InspectionContext, draft: Pick<InspectionDraf
   const prevFactor = prev ? correctionFactor(ctx.profile, prev.gaugeTempC, prev.linerTempC) : 1;
   const prevCells = (prev?.readings ?? []).map((r) => ({ stationKey: r.stationKey, axisKey: r.axisKey, diameterMm: r.diameterMm * prevFactor }));
   const prevMap = new Map(prevCells.map((r) => [cellKey(r.stationKey, r.axisKey), r.diameterMm]));
-  const asFitted = new Map((ctx.asFitted ?? []).map((r) => [cellKey(r.stationKey, r.axisKey), r.diameterMm]));
+  const { asFittedReadings } = inspectionAnalysisInput(profile, toGauging("draft", draft.header, draft.readings), ctx.asFitted);
+  const asFitted = new Map((asFittedReadings ?? []).map((r) => [cellKey(r.stationKey, r.axisKey), r.diameterMm]));
   const hoursSince = prev && Number.isFinite(draft.header.linerHours) ? draft.header.linerHours - prev.linerHours : null;
   const cells = new Map<string, Finding[]>();
   for (const r of draft.readings) {
