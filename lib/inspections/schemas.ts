@@ -81,7 +81,8 @@ export const GAP_MEASURED_IN_LABELS: Record<(typeof GAP_MEASURED_IN)[number], st
 export const ringReadingSchema = z.object({
   position: z.number({ error: "Name the ring position." }).int().min(1).max(LIMITS.rings),
   closedGapMm: num("closed gap", 0, 100, "mm").nullable(),
-  gapMeasuredIn: z.enum(GAP_MEASURED_IN, { error: "Say where the gap was measured." }),
+  /** No default: null until the engineer says, and required once a gap is entered. */
+  gapMeasuredIn: z.enum(GAP_MEASURED_IN, { error: "Say where the gap was measured." }).nullable(),
   /** The liner's diameter where a gap was measured in a worn part of the liner. */
   gapLinerDiameterMm: num("liner diameter where the gap was measured", 1, 5000, "mm").nullable().optional(),
   grooveClearanceMm: num("groove clearance", 0, 20, "mm").nullable(),

@@ -15,7 +15,8 @@ import { toWearProfile } from "@/lib/inspections/context";
 import { listInspectionAudit } from "@/lib/inspections/audit-queries";
 import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
-import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
+import { approvalFigures } from "@/lib/inspections/approval";
+import { openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { intervalRate } from "@/lib/wear/liner";
@@ -76,6 +77,18 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
   const c = insp.draft.checklist;
   const dev = rodNutDeviation(profile, c.rodNutPressureBar);
+  const approval =
+    insp.state === "submitted"
+      ? approvalFigures({
+          wearLimitMm: profile.linerWearLimitMm,
+          inspectedOn: h.inspectedOn,
+          linerHours: h.linerHours,
+          maxWear: analysis.maxWear ? { wearMm: analysis.maxWear.wearMm, at: stationLabel(analysis.maxWear.stationKey) } : null,
+          previous: prev && since ? { maxWearMm: since.maxWearMm, linerHours: prev.linerHours, inspectedOn: prev.inspectedOn } : null,
+          hoursLog: ctx.hoursLog,
+          cautions: openCautions(ctx, insp.draft),
+        })
+      : undefined;
   const allowed = {
     edit: can(user.role, "inspection.editDraft"),
     approve: can(user.role, "inspection.approve"),
@@ -119,7 +132,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <strong>Returned for correction:</strong> {insp.returnComment}
           </p>
         ) : null}
-        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} />
+        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} approval={approval} />
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
 
@@ -232,13 +245,13 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                     <td className="num px-2 py-2 text-right align-top sm:px-3">
                       {r?.closedGapMm != null ? <span className={tone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
                       {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
-                      {r ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
+                      {r?.gapMeasuredIn ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span>
                       ) : null}
                     </td>
                     <td className="hidden px-3 py-2 align-top md:table-cell">
-                      {r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
+                      {r?.gapMeasuredIn ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint">
                           at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring
