@@ -415,7 +415,9 @@ describe("amending an approved inspection", () => {
     expect((await put(amendId, copy.revision, corrected, "engineer")).status).toBe(200);
     expect((await call("engineer", submitRoute, "POST", `/api/inspections/${amendId}/submit`, {}, amendId)).status).toBe(200);
     expect((await get(original)).state).toBe("approved"); // still the record until the amendment is approved
-    expect((await call("chief", approveRoute, "POST", `/api/inspections/${amendId}/approve`, {}, amendId)).status).toBe(200);
+    // The chief opened the amendment, so a second person approves it.
+    expect((await call("chief", approveRoute, "POST", `/api/inspections/${amendId}/approve`, {}, amendId)).status).toBe(403);
+    expect((await call("supt", approveRoute, "POST", `/api/inspections/${amendId}/approve`, {}, amendId)).status).toBe(200);
 
     const [o, n] = [await get(original), await get(amendId)];
     expect(o.state).toBe("superseded");

@@ -1,9 +1,12 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { InspectionList } from "@/components/home/inspection-list";
 import { BandBadge, isBandKey, type BandKey } from "@/components/wear/band-badge";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requirePermission } from "@/lib/auth/session";
+import { can } from "@/lib/auth/permissions";
 import { listFleet } from "@/lib/fleet/queries";
+import { listAwaitingSuperintendent } from "@/lib/home/queries";
 import { day, fixed, monthYear } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Fleet" };
@@ -12,7 +15,10 @@ const BAND_ORDER: BandKey[] = ["over_limit", "renew_before_next", "watch", "stea
 
 export default async function FleetPage() {
   const user = await requirePermission("fleet.read");
-  const vessels = await listFleet(user);
+  const [vessels, waiting] = await Promise.all([
+    listFleet(user),
+    user.role === "superintendent" && can(user.role, "inspection.approve") ? listAwaitingSuperintendent(user) : Promise.resolve([]),
+  ]);
   return (
     <>
       <PageHeader eyebrow={vessels[0]?.companyName ?? "Fleet"} title="Fleet">
@@ -20,6 +26,15 @@ export default async function FleetPage() {
           {vessels.length} {vessels.length === 1 ? "vessel" : "vessels"}
         </span>
       </PageHeader>
+      {waiting.length ? (
+        <section aria-labelledby="waiting-for-you" className="mb-8">
+          <h2 id="waiting-for-you" className="mb-1 text-lg font-semibold">
+            Waiting for your approval <span className="num text-ink-faint">({waiting.length})</span>
+          </h2>
+          <p className="mb-3 text-sm text-ink-soft">Every chief engineer assigned to these vessels entered or submitted the record themselves, so it needs your check.</p>
+          <InspectionList rows={waiting} showBy empty="" />
+        </section>
+      ) : null}
       {vessels.length === 0 ? (
         <Card className="p-6 text-ink-soft">No vessels are assigned to you yet. Ask your administrator to add you to a vessel.</Card>
       ) : (

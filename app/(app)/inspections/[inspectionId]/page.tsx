@@ -15,7 +15,7 @@ import { toWearProfile } from "@/lib/inspections/context";
 import { listInspectionAudit } from "@/lib/inspections/audit-queries";
 import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
-import { approvalFigures } from "@/lib/inspections/approval";
+import { approvalFigures, approvalRefusal } from "@/lib/inspections/approval";
 import { openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
@@ -89,9 +89,12 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
           cautions: openCautions(ctx, insp.draft),
         })
       : undefined;
+  const approvalParties = { createdBy: insp.createdBy?.id ?? null, submittedBy: insp.submittedBy?.id ?? null };
+  // A chief engineer who entered or submitted this record is told who approves it instead.
+  const ownRecordNote = insp.state === "submitted" && can(user.role, "inspection.approve") ? approvalRefusal(user, approvalParties) : null;
   const allowed = {
     edit: can(user.role, "inspection.editDraft"),
-    approve: can(user.role, "inspection.approve"),
+    approve: can(user.role, "inspection.approve") && !approvalRefusal(user, approvalParties),
     return: can(user.role, "inspection.return"),
     amend: can(user.role, "inspection.amend"),
   };
@@ -133,6 +136,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
           </p>
         ) : null}
         <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} approval={approval} />
+        {ownRecordNote ? <p className="text-sm text-ink-soft">{ownRecordNote}</p> : null}
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
 
