@@ -3,7 +3,6 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PhotoPanel } from "@/components/inspections/photo-panel";
 import { WorkflowActions } from "@/components/inspections/workflow-actions";
-import { approvalRefusal } from "@/lib/inspections/approval";
 import { BandBadge } from "@/components/wear/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
@@ -16,7 +15,8 @@ import { toWearProfile } from "@/lib/inspections/context";
 import { listInspectionAudit } from "@/lib/inspections/audit-queries";
 import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
-import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
+import { approvalFigures, approvalRefusal } from "@/lib/inspections/approval";
+import { openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { intervalRate } from "@/lib/wear/liner";
@@ -77,6 +77,18 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
   const c = insp.draft.checklist;
   const dev = rodNutDeviation(profile, c.rodNutPressureBar);
+  const approval =
+    insp.state === "submitted"
+      ? approvalFigures({
+          wearLimitMm: profile.linerWearLimitMm,
+          inspectedOn: h.inspectedOn,
+          linerHours: h.linerHours,
+          maxWear: analysis.maxWear ? { wearMm: analysis.maxWear.wearMm, at: stationLabel(analysis.maxWear.stationKey) } : null,
+          previous: prev && since ? { maxWearMm: since.maxWearMm, linerHours: prev.linerHours, inspectedOn: prev.inspectedOn } : null,
+          hoursLog: ctx.hoursLog,
+          cautions: openCautions(ctx, insp.draft),
+        })
+      : undefined;
   const approvalParties = { createdBy: insp.createdBy?.id ?? null, submittedBy: insp.submittedBy?.id ?? null };
   // A chief engineer who entered or submitted this record is told who approves it instead.
   const ownRecordNote = insp.state === "submitted" && can(user.role, "inspection.approve") ? approvalRefusal(user, approvalParties) : null;
@@ -123,7 +135,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <strong>Returned for correction:</strong> {insp.returnComment}
           </p>
         ) : null}
-        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} />
+        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} approval={approval} />
         {ownRecordNote ? <p className="text-sm text-ink-soft">{ownRecordNote}</p> : null}
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
@@ -237,13 +249,13 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                     <td className="num px-2 py-2 text-right align-top sm:px-3">
                       {r?.closedGapMm != null ? <span className={tone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
                       {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
-                      {r ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
+                      {r?.gapMeasuredIn ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span>
                       ) : null}
                     </td>
                     <td className="hidden px-3 py-2 align-top md:table-cell">
-                      {r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
+                      {r?.gapMeasuredIn ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint">
                           at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring
