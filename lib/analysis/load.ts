@@ -1,5 +1,6 @@
 import type { Knex } from "knex";
-import type { RingInspection } from "@/lib/rings/rings";
+import { gapLinerIncrease, type RingInspection } from "@/lib/rings/rings";
+import { temperatureCorrection } from "@/lib/wear/correction";
 import type { RunningHoursEntry } from "@/lib/wear/calendar";
 import type { ContextProfile } from "@/lib/inspections/context";
 import type { Inspection, StationRole, WearProfile } from "@/lib/wear/types";
@@ -87,6 +88,21 @@ export async function loadProfiles(db: Knex | Knex.Transaction, ids?: number[]):
     });
   }
   return out;
+}
+
+/**
+ * The liner diameter increase where a gap was read in a worn part, referred to 20 °C with the
+ * inspection's temperatures like its bore readings; a refused (under-nominal) diameter is passed
+ * on as the negative figure, so the ring analysis reports it and uses the gap as measured.
+ */
+function increaseOf(
+  profile: ProfileRow,
+  i: { gauge_temp_c: unknown; liner_temp_c: unknown },
+  diameterMm: number,
+): number | null {
+  const { factor } = temperatureCorrection(profile, i.gauge_temp_c == null ? null : Number(i.gauge_temp_c), i.liner_temp_c == null ? null : Number(i.liner_temp_c));
+  const inc = gapLinerIncrease(profile.boreMm, diameterMm, factor);
+  return inc.kind === "ok" ? inc.increaseMm : inc.kind === "invalid" ? diameterMm * factor - profile.boreMm : null;
 }
 
 export type LoadedEngineUnits = { units: UnitInput[]; profiles: Map<number, ProfileRow> };
@@ -204,7 +220,7 @@ export async function loadUnitInputs(
           position: r.position,
           closedGapMm: r.closedGapMm,
           gapMeasuredIn: r.gapMeasuredIn,
-          linerDiameterIncreaseMm: r.gapLinerDiameterMm === null ? null : r.gapLinerDiameterMm - profile.boreMm,
+          linerDiameterIncreaseMm: r.gapLinerDiameterMm === null ? null : increaseOf(profile, i, r.gapLinerDiameterMm),
           grooveClearanceMm: r.grooveClearanceMm,
           renewed: r.renewed,
         })),

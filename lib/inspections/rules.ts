@@ -1,5 +1,5 @@
 import { inspectionAnalysisInput, toGauging } from "@/lib/analysis/input";
-import { ringState, type RingState } from "@/lib/rings/rings";
+import { gapLinerIncrease, ringState, type RingState } from "@/lib/rings/rings";
 import { formatRunningHours, parseIsoDate, runningHoursPerDay, type RunningHoursEntry } from "@/lib/wear/calendar";
 import { temperatureCorrection } from "@/lib/wear/correction";
 import { checkReading, type ReadingWarning } from "@/lib/wear/plausibility";
@@ -253,6 +253,10 @@ export function submissionProblems(ctx: InspectionContext, draft: InspectionDraf
     const r = rings.get(spec.position);
     if (!r || r.closedGapMm == null) out.push({ field: `rings.${spec.position}.closedGapMm`, message: `${spec.label}: enter the closed gap.` });
     if (!r || r.grooveClearanceMm == null) out.push({ field: `rings.${spec.position}.grooveClearanceMm`, message: `${spec.label}: enter the groove clearance.` });
+    if (r && r.gapMeasuredIn === "liner_worn") {
+      const inc = gapLinerIncrease(ctx.profile.boreMm, r.gapLinerDiameterMm, correctionFactor(ctx.profile, draft.header.gaugeTempC, draft.header.linerTempC));
+      if (inc.kind === "invalid") out.push({ field: `rings.${spec.position}.gapLinerDiameterMm`, message: `${spec.label}: ${inc.message}` });
+    }
   }
   out.push(...checklistProblems(draft.checklist));
   return out;
