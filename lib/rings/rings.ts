@@ -1,6 +1,5 @@
 import { leastSquaresSlope } from "../stats/regression";
-import { formatMm as mm } from "../units/length";
-import { formatRunningHours } from "../wear/calendar";
+import { hoursText as formatRunningHours, mm, rateText } from "../format";
 
 /** New and limit values for one ring position, from the maker's clearance table. */
 export type RingPositionSpec = {
@@ -221,7 +220,7 @@ export function analyseRings(
         } else if (nextOverhaul !== null && m.hoursToLimit !== null && m.hoursToLimit < nextOverhaul) {
           result.renew = true;
           result.reasons.push(
-            `Ring ${spec.position} ${name} is growing ${mm(m.growthMmPer1000h, 3)} per 1000 h and would reach its ${mm(m.limitMm)} limit in about ${formatRunningHours(m.hoursToLimit)}, before the next overhaul.`,
+            `Ring ${spec.position} ${name} is growing ${rateText(m.growthMmPer1000h)} and would reach its ${mm(m.limitMm)} limit in about ${formatRunningHours(m.hoursToLimit)}, before the next overhaul.`,
           );
         }
       }
