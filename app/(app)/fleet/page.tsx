@@ -3,8 +3,9 @@ import Link from "next/link";
 import { BandBadge, isBandKey, type BandKey } from "@/components/wear/band-badge";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requirePermission } from "@/lib/auth/session";
-import { listFleet } from "@/lib/fleet/queries";
-import { day, fixed, monthYear } from "@/lib/format";
+import { listFleet, listFleetWearRates } from "@/lib/fleet/queries";
+import { rateSpread } from "@/lib/fleet/rates";
+import { day, fixed, monthYear, rate, rateText } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Fleet" };
 
@@ -12,7 +13,8 @@ const BAND_ORDER: BandKey[] = ["over_limit", "renew_before_next", "watch", "stea
 
 export default async function FleetPage() {
   const user = await requirePermission("fleet.read");
-  const vessels = await listFleet(user);
+  const [vessels, rates] = await Promise.all([listFleet(user), listFleetWearRates(user)]);
+  const spread = rateSpread(rates);
   return (
     <>
       <PageHeader eyebrow={vessels[0]?.companyName ?? "Fleet"} title="Fleet">
@@ -20,6 +22,12 @@ export default async function FleetPage() {
           {vessels.length} {vessels.length === 1 ? "vessel" : "vessels"}
         </span>
       </PageHeader>
+      {spread ? (
+        <p className="mb-4 text-sm text-ink-soft" data-testid="fleet-rate-spread">
+          Liner wear across the fleet&apos;s {spread.n} units with a rate: median <span className="num font-semibold text-ink">{rateText(spread.median)}</span>; 8 in
+          10 units between <span className="num">{rate(spread.p10)}</span> and <span className="num">{rateText(spread.p90)}</span>.
+        </p>
+      ) : null}
       {vessels.length === 0 ? (
         <Card className="p-6 text-ink-soft">No vessels are assigned to you yet. Ask your administrator to add you to a vessel.</Card>
       ) : (
