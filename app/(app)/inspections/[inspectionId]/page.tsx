@@ -8,6 +8,7 @@ import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
 import { WearTable, wearCellKey } from "@/components/wear/wear-table";
 import { can } from "@/lib/auth/permissions";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { day, fixed, hours, spread } from "@/lib/format";
 import { toWearProfile } from "@/lib/inspections/context";
@@ -46,8 +47,8 @@ function detailText(action: string, d: Record<string, unknown> | null): string |
 
 export default async function InspectionPage({ params }: { params: Promise<{ inspectionId: string }> }) {
   const user = await requirePermission("fleet.read");
-  const id = Number((await params).inspectionId);
-  const found = Number.isInteger(id) && id > 0 ? await getInspectionForUser(user, id) : null;
+  const id = await requireRecordInScope("inspection", (await params).inspectionId);
+  const found = await getInspectionForUser(user, id);
   if (!found) notFound();
   const { inspection: insp, context: ctx } = found;
   const [audit, summary] = await Promise.all([listInspectionAudit(id), getStoredUnitSummary(insp.unitId)]);

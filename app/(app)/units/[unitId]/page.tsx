@@ -11,6 +11,7 @@ import { DataTable } from "@/components/wear/data-table";
 import { WearTable } from "@/components/wear/wear-table";
 import { getUnitAnalysis } from "@/lib/analysis/queries";
 import { can } from "@/lib/auth/permissions";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { day, fixed, hours, hoursText, mm, rate, spread } from "@/lib/format";
 
@@ -27,8 +28,7 @@ const STATE_LABELS: Record<string, string> = {
 export default async function UnitPage({ params }: { params: Promise<{ unitId: string }> }) {
   const user = await requirePermission("fleet.read");
   const { unitId } = await params;
-  const id = Number(unitId);
-  const data = Number.isInteger(id) && id > 0 ? await getUnitAnalysis(user, id) : null;
+  const data = await getUnitAnalysis(user, await requireRecordInScope("unit", unitId));
   if (!data) notFound();
   const { context: ctx, summary, profile } = data;
   const currentLiner = data.liners.find((l) => !l.removedOn) ?? null;
