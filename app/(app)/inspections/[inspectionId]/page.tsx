@@ -80,8 +80,11 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
   const c = insp.draft.checklist;
   const dev = rodNutDeviation(profile, c.rodNutPressureBar);
+  const isAuthor = insp.createdBy?.id === user.id;
   const allowed = {
-    edit: can(user.role, "inspection.editDraft"),
+    // A returned record is corrected by the crew, not by the chief who returned it.
+    edit: can(user.role, "inspection.editDraft") && (insp.state !== "returned" || isAuthor || !can(user.role, "inspection.return")),
+    discard: insp.state === "draft" && isAuthor && can(user.role, "inspection.editDraft"),
     approve: can(user.role, "inspection.approve"),
     return: can(user.role, "inspection.return"),
     amend: can(user.role, "inspection.amend"),
