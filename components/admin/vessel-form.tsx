@@ -42,7 +42,7 @@ export function VesselForm({ companies, initial }: { companies: { id: number; na
           <Input id="name" aria-invalid={!!e.name} {...register("name")} />
         </FormField>
         <FormField id="imoNumber" label="IMO number" hint="Seven digits; the last one is a check digit." error={errorAt(e, "imoNumber")}>
-          <Input id="imoNumber" inputMode="numeric" autoComplete="off" placeholder="e.g. 9074729" className="num" aria-invalid={!!e.imoNumber} {...register("imoNumber")} />
+          <Input id="imoNumber" inputMode="numeric" autoComplete="off" placeholder="e.g. 1234567" className="num" aria-invalid={!!e.imoNumber} {...register("imoNumber")} />
         </FormField>
       </div>
       <div className="grid gap-4 sm:grid-cols-2">

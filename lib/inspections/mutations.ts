@@ -4,11 +4,12 @@ import { recomputeUnits } from "@/lib/analysis/recompute";
 import { writeAudit } from "@/lib/audit/mutations";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
+import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { removeObject } from "@/lib/photos/storage";
-import { analyseInspection } from "@/lib/wear/inspection";
 import { toWearProfile, type InspectionContext } from "./context";
 import { DEFAULT_TALLY_LABELS } from "./form";
-import { getInspectionDto, getInspectionRow, loadInspectionContext, type InspectionRow } from "./queries";
+import { loadInspectionContext } from "./context-queries";
+import { getInspectionDto, getInspectionRow, type InspectionRow } from "./queries";
 import { checkHours, derivedLinerHours, structuralErrors, submissionProblems, type Problem } from "./rules";
 import type { CreateInspectionInput, InspectionDraft, InspectionState } from "./schemas";
 
@@ -300,15 +301,7 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       );
     }
     await recomputeUnits(trx, { unitIds: [row.unitId] });
-    const analysis = analyseInspection(toWearProfile(ctx.profile), {
-      id: String(id),
-      date: draft.header.inspectedOn,
-      engineHours: draft.header.engineHours,
-      linerHours: draft.header.linerHours,
-      gaugeTempC: draft.header.gaugeTempC,
-      linerTempC: draft.header.linerTempC,
-      readings: draft.readings,
-    });
+    const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
     await writeAudit(
       {
         actor,

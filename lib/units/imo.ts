@@ -18,7 +18,7 @@ export function imoCheckDigit(firstSix: string): number | null {
 }
 
 /**
- * Validates an IMO ship number typed as "IMO 9074729", "imo9074729" or "9074729". A wrong check
+ * Validates an IMO ship number typed as "IMO 1234567", "imo1234567" or "1234567". A wrong check
  * digit almost always means a mistyped number, so it is reported apart from a wrong format.
  */
 export function parseImoNumber(input: string): ImoNumberResult {

@@ -48,9 +48,12 @@ export async function throwawayInvitation(world: RoleWorld, expired = false): Pr
   return { id: issued.invitationId, token: issued.token };
 }
 
-/** A valid IMO number not used before: six digits, then the check digit. */
+/**
+ * A valid IMO number not used before: six digits, then the check digit. Invented numbers start
+ * with 1–4, a block not issued to ships (issued numbers start 5–9 [memory]).
+ */
 export function freshImo(): string {
-  const six = String(100000 + ((Date.now() + ++seq * 7919) % 899999)).slice(0, 6);
+  const six = String(100000 + ((Date.now() + ++seq * 7919) % 400000));
   const check = [7, 6, 5, 4, 3, 2].reduce((s, w, i) => s + w * Number(six[i]), 0) % 10;
   return `${six}${check}`;
 }

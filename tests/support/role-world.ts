@@ -47,8 +47,8 @@ async function upsert(db: Knex, table: string, where: Record<string, unknown>, r
 export async function buildRoleWorld(db: Knex, tag = "roles"): Promise<RoleWorld> {
   const hash = await hashPassword(WORLD_PASSWORD);
   const companyId = await upsert(db, "companies", { name: `Harbour Test Shipping (${tag})` }, {});
-  const vessel1 = await upsert(db, "vessels", { imo_number: tag === "roles" ? "9074729" : "9176187" }, { name: "Test Petrel", company_id: companyId, vessel_type: "Bulk carrier" });
-  const vessel2 = await upsert(db, "vessels", { imo_number: tag === "roles" ? "9319466" : "9247455" }, { name: "Test Fulmar", company_id: companyId, vessel_type: "Tanker" });
+  const vessel1 = await upsert(db, "vessels", { imo_number: tag === "roles" ? "3104522" : "2479188" }, { name: "Test Petrel", company_id: companyId, vessel_type: "Bulk carrier" });
+  const vessel2 = await upsert(db, "vessels", { imo_number: tag === "roles" ? "4052635" : "1587342" }, { name: "Test Fulmar", company_id: companyId, vessel_type: "Tanker" });
   const profileId = await upsert(db, "engine_profiles", { name: `Test 600 bore (${tag})` }, {
     designation: "T-600 long stroke",
     bore_mm: 600,

@@ -85,12 +85,17 @@ describe("profileSchema", () => {
 });
 
 describe("vesselSchema", () => {
-  const v = { name: "Test Petrel", imoNumber: "9074729", companyId: "1", newCompanyName: "", vesselType: "", flag: "", builtYear: "" };
+  const v = { name: "Test Petrel", imoNumber: "3104522", companyId: "1", newCompanyName: "", vesselType: "", flag: "", builtYear: "" };
+  // 3104522 is invented (first digit 1–4, a block not issued to ships [memory]); check digit [derived]
+  // under IMO Resolution A.1078(28).
   it("accepts a valid IMO number written with the prefix and stores the digits", () => {
-    expect(vesselSchema.parse({ ...v, imoNumber: "IMO 9074729" }).imoNumber).toBe("9074729");
+    expect(vesselSchema.parse({ ...v, imoNumber: "IMO 3104522" }).imoNumber).toBe("3104522");
+  });
+  it("still accepts a number from the block issued to real ships (the scheme's worked example, 9074729 [memory])", () => {
+    expect(vesselSchema.parse({ ...v, imoNumber: "9074729" }).imoNumber).toBe("9074729");
   });
   it("refuses a wrong check digit on the IMO field", () => {
-    const r = vesselSchema.safeParse({ ...v, imoNumber: "9074728" });
+    const r = vesselSchema.safeParse({ ...v, imoNumber: "3104523" });
     expect(r.success).toBe(false);
     expect(r.error?.issues[0].path).toEqual(["imoNumber"]);
   });

@@ -5,6 +5,7 @@ import { InspectionEditor } from "@/components/inspections/inspection-editor";
 import { DiscardDraft } from "@/components/inspections/workflow-actions";
 import { PageHeader } from "@/components/ui/card";
 import { can } from "@/lib/auth/permissions";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { day } from "@/lib/format";
 import { getInspectionForUser } from "@/lib/inspections/queries";
@@ -20,8 +21,8 @@ export default async function EditInspectionPage({
   searchParams: Promise<{ opened?: string }>;
 }) {
   const user = await requirePermission("inspection.editDraft");
-  const id = Number((await params).inspectionId);
-  const found = Number.isInteger(id) && id > 0 ? await getInspectionForUser(user, id) : null;
+  const id = await requireRecordInScope("inspection", (await params).inspectionId);
+  const found = await getInspectionForUser(user, id);
   if (!found) notFound();
   const { inspection, context: ctx } = found;
   // Only drafts are edited; a submitted or approved record is read (and amended) on its own page.
