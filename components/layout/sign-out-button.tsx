@@ -2,7 +2,6 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { authClient } from "@/lib/auth/auth-client";
 import { forgetAllWaitingPhotos, listWaitingPhotos } from "@/lib/photos/offline-queue";
 import { forgetOfflinePages } from "./offline-support";
 
@@ -25,7 +24,8 @@ export function SignOutButton() {
         )
           return;
         setPending(true);
-        await authClient.signOut();
+        // better-auth's own endpoint, called directly: its client library would ride in every page's first load.
+        await fetch("/api/auth/sign-out", { method: "POST", headers: { "content-type": "application/json" }, body: "{}", credentials: "same-origin" }).catch(() => undefined);
         await forgetOfflinePages();
         await forgetAllWaitingPhotos();
         router.replace("/sign-in");

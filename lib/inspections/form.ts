@@ -2,7 +2,7 @@ import { MM_PER_INCH, type LengthUnit } from "@/lib/units/length";
 import type { ContextProfile } from "./context";
 import { cellKey } from "./context";
 import type { InspectionDraft, InspectionHeader, RingReadingInput } from "./schemas";
-import { emptyChecklist } from "./schemas";
+import { emptyChecklist } from "./constants";
 
 /*
  * The entry form keeps what was typed as text, exactly, so a half-typed or mistyped

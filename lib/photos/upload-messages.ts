@@ -1,4 +1,4 @@
-import { PHOTO_MAX_BYTES } from "@/lib/inspections/schemas";
+import { PHOTO_MAX_BYTES } from "@/lib/inspections/constants";
 
 /*
  * What the engineer reads when a photo is not kept: plain words naming the file and what to
