@@ -7,7 +7,8 @@ import { db as defaultDb } from "@/lib/db/knex";
 import { analyseInspection } from "@/lib/wear/inspection";
 import { toWearProfile, type InspectionContext } from "./context";
 import { DEFAULT_TALLY_LABELS } from "./form";
-import { getInspectionDto, getInspectionRow, loadInspectionContext, type InspectionRow } from "./queries";
+import { loadInspectionContext } from "./context-queries";
+import { getInspectionDto, getInspectionRow, type InspectionRow } from "./queries";
 import { checkHours, derivedLinerHours, structuralErrors, submissionProblems, type Problem } from "./rules";
 import type { CreateInspectionInput, InspectionDraft, InspectionState } from "./schemas";
 

@@ -5,7 +5,7 @@ import { writeAudit } from "@/lib/audit/mutations";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
 import { lockEditableInspection } from "@/lib/inspections/mutations";
-import { getPendingFile, getPhotoObjects, listPhotos } from "@/lib/inspections/queries";
+import { getPendingFile, getPhotoObjects, listPhotos } from "@/lib/inspections/photo-queries";
 import { PHOTO_MAX_BYTES, PHOTO_TYPES, type PhotoDto } from "@/lib/inspections/schemas";
 import { sniffImageType } from "./sniff";
 import { objectSize, presignUpload, readObject, removeObject, writeObject } from "./storage";

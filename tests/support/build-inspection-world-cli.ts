@@ -3,7 +3,7 @@
 //   DB_NAME=kalibore_d5 node --conditions=react-server --import tsx tests/support/build-inspection-world-cli.ts
 import { db } from "@/lib/db/knex";
 import { approveInspection, createInspection, saveDraft, submitInspection } from "@/lib/inspections/mutations";
-import { loadInspectionContext } from "@/lib/inspections/queries";
+import { loadInspectionContext } from "@/lib/inspections/context-queries";
 import { randomToken } from "@/lib/inspections/form";
 import { completeDraft, daysAgo, ensureHoursLog, ensureLiner, hoursOnDay } from "./inspection-builders";
 import { buildRoleWorld } from "./role-world";

@@ -2,7 +2,7 @@ import type { Knex } from "knex";
 import { db as appDb } from "@/lib/db/knex";
 import { randomToken } from "@/lib/inspections/form";
 import { approveInspection, createInspection, saveDraft, submitInspection } from "@/lib/inspections/mutations";
-import { loadInspectionContext } from "@/lib/inspections/queries";
+import { loadInspectionContext } from "@/lib/inspections/context-queries";
 import { completePhoto, createPhotoSlot } from "@/lib/photos/mutations";
 import type { InspectionContext } from "@/lib/inspections/context";
 import type { InspectionDraft } from "@/lib/inspections/schemas";

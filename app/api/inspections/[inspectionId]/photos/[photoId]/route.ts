@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { notFound, parseId, withRoute } from "@/lib/auth/api";
 import { inspectionIdOf, vesselOfInspection, mapRecordErrors } from "@/lib/inspections/http";
-import { getPhotoObjects } from "@/lib/inspections/queries";
+import { getPhotoObjects } from "@/lib/inspections/photo-queries";
 import { deletePhoto } from "@/lib/photos/mutations";
 import { presignRead } from "@/lib/photos/storage";
 

@@ -1,0 +1,88 @@
+"use client";
+
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { Button } from "@/components/ui/button";
+import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
+import type { Problem } from "@/lib/inspections/rules";
+import type { InspectionDto } from "@/lib/inspections/schemas";
+
+/** What still blocks submission, and the submit button (which saves the latest changes first). */
+export function SubmitPanel({
+  inspectionId,
+  problems,
+  canSubmit,
+  blocked,
+  flush,
+  forget,
+}: {
+  inspectionId: number;
+  problems: Problem[];
+  canSubmit: boolean;
+  /** A conflict is open: nothing may be submitted until it is settled. */
+  blocked: boolean;
+  flush: () => Promise<boolean>;
+  forget: () => void;
+}) {
+  const router = useRouter();
+  const [submitError, setSubmitError] = useState<Problem[] | string | null>(null);
+  const [submitting, setSubmitting] = useState(false);
+
+  async function submit() {
+    setSubmitError(null);
+    setSubmitting(true);
+    try {
+      const ok = await flush();
+      if (!ok) {
+        setSubmitError("The latest changes are not on the server yet (see the status above). Nothing was submitted; your entries are kept.");
+        return;
+      }
+      const rev = (await apiJson<InspectionDto>(`/api/inspections/${inspectionId}`)).revision;
+      await apiJson(`/api/inspections/${inspectionId}/submit`, { method: "POST", body: { revision: rev } });
+      forget();
+      router.push(`/inspections/${inspectionId}`);
+      router.refresh();
+    } catch (err) {
+      if (err instanceof NetworkError) setSubmitError("No network: submit when you are back online. Everything is kept on this device.");
+      else if (err instanceof ApiError) setSubmitError(err.body.details?.problems ?? err.message);
+      else setSubmitError("Something went wrong; nothing was submitted.");
+    } finally {
+      setSubmitting(false);
+    }
+  }
+
+  return (
+    <section id="submit" aria-labelledby="submit-h" className="scroll-mt-32 rounded-lg border border-ink-line bg-paper-raised p-4">
+      <h2 id="submit-h" className="text-xl font-semibold">
+        Submit for approval
+      </h2>
+      {problems.length ? (
+        <>
+          <p className="mt-1 text-sm text-ink-soft">Before the chief engineer can approve this record:</p>
+          <ul className="mt-2 space-y-1 text-sm">
+            {problems.map((p) => (
+              <li key={p.field + p.message} className="flex gap-2">
+                <span aria-hidden="true">○</span>
+                <span>{p.message}</span>
+              </li>
+            ))}
+          </ul>
+        </>
+      ) : (
+        <p className="mt-1 font-medium text-steady">✓ Complete: every reading, ring and checklist item is in.</p>
+      )}
+      {submitError ? (
+        <div role="alert" className="mt-3 rounded-md border border-caution bg-caution-tint p-3 text-sm font-medium text-caution">
+          {typeof submitError === "string" ? submitError : submitError.map((p) => <p key={p.message}>⚠ {p.message}</p>)}
+        </div>
+      ) : null}
+      {canSubmit ? (
+        <Button type="button" size="lg" className="mt-4" disabled={problems.length > 0 || submitting || blocked} onClick={submit}>
+          {submitting ? "Submitting…" : "Submit for approval"}
+        </Button>
+      ) : (
+        <p className="mt-3 text-sm text-ink-faint">Your role cannot submit inspections.</p>
+      )}
+    </section>
+  );
+}
