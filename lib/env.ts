@@ -13,6 +13,17 @@ const port = (fallback: number) =>
     .max(65535, "must be a port number (1–65535)")
     .default(fallback);
 
+/**
+ * Secrets anyone can read (the one this code used to fall back to, the one in
+ * .env.example, the development default below): a production server refuses them, since a
+ * session cookie signed with a published secret can be forged.
+ */
+export const PUBLISHED_AUTH_SECRETS: readonly string[] = [
+  "local-demo-secret-change-me-0123456789abcdef",
+  "development-only-secret-never-used-in-production",
+];
+const DEVELOPMENT_AUTH_SECRET = "development-only-secret-never-used-in-production";
+
 const count = (fallback: number, min: number, what: string) =>
   z.coerce.number({ error: `must be ${what}` }).int(`must be ${what}`).min(min, `must be ${what}`).default(fallback);
 
@@ -38,11 +49,26 @@ export const serverEnvSchema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().min(3).default("Kalibore <no-reply@kalibore.local>"),
-  BETTER_AUTH_SECRET: z.string().min(32, "must be at least 32 characters").default("local-demo-secret-change-me-0123456789abcdef"),
+  BETTER_AUTH_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
   AUTH_RATE_LIMIT_MAX: count(5, 1, "a whole number of attempts, at least 1"),
   AUTH_RATE_LIMIT_WINDOW_S: count(60, 1, "a whole number of seconds, at least 1"),
+  TRUSTED_PROXY_HEADER: z.string().regex(/^[A-Za-z0-9-]+$/, "must be a header name such as X-Forwarded-For").optional(),
   SESSION_MAX_AGE_S: count(60 * 60 * 12, 300, "a whole number of seconds, at least 300"),
-});
+})
+  .superRefine((env, ctx) => {
+    if (env.NODE_ENV !== "production") return;
+    const secret = env.BETTER_AUTH_SECRET;
+    const problem = !secret
+      ? "must be set in production (at least 32 random characters; npm start generates one into .data/auth-secret)"
+      : PUBLISHED_AUTH_SECRETS.includes(secret)
+        ? "is a published example value; generate your own (e.g. openssl rand -base64 48)"
+        : new Set(secret).size < 12
+          ? "is too regular to be secret; generate a random one (e.g. openssl rand -base64 48)"
+          : null;
+    if (problem) ctx.addIssue({ code: "custom", path: ["BETTER_AUTH_SECRET"], message: problem });
+  })
+  // Outside production a fixed development secret keeps `next dev` and the unit tests simple.
+  .transform((env) => ({ ...env, BETTER_AUTH_SECRET: env.BETTER_AUTH_SECRET ?? DEVELOPMENT_AUTH_SECRET }));
 
 export type ServerEnv = z.infer<typeof serverEnvSchema>;
 

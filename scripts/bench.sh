@@ -4,6 +4,7 @@
 # beside their targets. The fleet is generated once and kept between runs.
 source "$(dirname "$0")/lib/common.sh"
 export NODE_ENV=production DB_HOST=127.0.0.1 DB_PORT="${BENCH_DB_PORT:-3327}" DB_NAME=kalibore_bench DB_USER=kalibore_bench DB_PASSWORD=kalibore-bench-pw
+ensure_auth_secret "$ROOT/.bench-data/auth-secret"
 trap 'stop_started' EXIT
 trap 'exit 130' INT TERM
 ensure_node_modules

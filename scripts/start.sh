@@ -15,6 +15,7 @@ export S3_FAKE_PORT="${S3_FAKE_PORT:-4569}" SMTP_FAKE_PORT="${SMTP_FAKE_PORT:-25
 export S3_ENDPOINT="${S3_ENDPOINT:-http://127.0.0.1:$S3_FAKE_PORT}" SMTP_HOST="${SMTP_HOST:-127.0.0.1}" SMTP_PORT="${SMTP_PORT:-$SMTP_FAKE_PORT}"
 DATA_DIR="${KALIBORE_DATA_DIR:-$ROOT/.data}"
 RUN_DIR="$DATA_DIR/run"
+ensure_auth_secret "$DATA_DIR/auth-secret"
 
 cleanup() {
   local code=$?

@@ -13,6 +13,9 @@ export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT" S3_BUCKET=kalibore-test SMTP
 export MAIL_FAKE_DIR="$TEST_DATA_DIR/mail" S3_FAKE_DIR="$TEST_DATA_DIR/s3"
 export E2E_PORT="${TEST_WEB_PORT:-3100}"
 export AUTH_RATE_LIMIT_MAX=5 AUTH_RATE_LIMIT_WINDOW_S=60
+# A fresh random secret per run: production mode refuses a missing or published one.
+BETTER_AUTH_SECRET="$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')"
+export BETTER_AUTH_SECRET
 RESULTS="$TEST_DATA_DIR/results"
 # For development only: TEST_SUITES="unit integration" runs a part, TEST_FILTER narrows
 # vitest to matching files and Playwright to matching spec files. CI runs everything.

@@ -5,6 +5,7 @@ import { useState } from "react";
 import { Button } from "@/components/ui/button";
 import { FieldError, Input, Label } from "@/components/ui/field";
 import { authClient } from "@/lib/auth/auth-client";
+import { safeNextPath } from "@/lib/auth/safe-next";
 
 export function SignInForm({ next }: { next: string }) {
   const router = useRouter();
@@ -27,7 +28,8 @@ export function SignInForm({ next }: { next: string }) {
       else setError("The e-mail address or password is not right.");
       return;
     }
-    router.replace(next);
+    // Checked again here against the address the browser is on, whatever the page passed.
+    router.replace(safeNextPath(next, window.location.origin));
     router.refresh();
   }
 

@@ -3,7 +3,7 @@ import { toWearProfile, type InspectionContext } from "@/lib/inspections/context
 import { toDraft, type FormState } from "@/lib/inspections/form";
 import { checkHours, readingWarnings, submissionProblems } from "@/lib/inspections/rules";
 import type { InspectionDto } from "@/lib/inspections/schemas";
-import { analyseInspection } from "@/lib/wear/inspection";
+import { analyseGauging, toGauging } from "@/lib/analysis/input";
 
 /**
  * What the sheet shows beside what is typed: the draft as the server would store it, the
@@ -15,20 +15,7 @@ export function useSheetAnalysis(form: FormState, initial: InspectionDto, ctx: I
   const { draft } = useMemo(() => toDraft(form, profile, initial.draft.header), [form, profile, initial.draft.header]);
   const wearProfile = useMemo(() => toWearProfile(profile), [profile]);
   const analysis = useMemo(
-    () =>
-      analyseInspection(
-        wearProfile,
-        {
-          id: String(initial.id),
-          date: draft.header.inspectedOn,
-          engineHours: draft.header.engineHours,
-          linerHours: draft.header.linerHours,
-          gaugeTempC: draft.header.gaugeTempC,
-          linerTempC: draft.header.linerTempC,
-          readings: draft.readings,
-        },
-        ctx.asFitted ?? undefined,
-      ),
+    () => analyseGauging(wearProfile, toGauging(initial.id, draft.header, draft.readings), ctx.asFitted),
     [wearProfile, draft, initial.id, ctx.asFitted],
   );
   const warnings = useMemo(() => readingWarnings(ctx, draft), [ctx, draft]);

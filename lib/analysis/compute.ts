@@ -16,7 +16,10 @@ export type UnitInput = {
   /** As-fitted readings (the liner's first inspection) when the profile measures wear from them. */
   asFittedReadings?: LinerReading[];
   hoursLog: RunningHoursEntry[];
+  /** The planned next overhaul as stored on the unit; used only until the unit has an approved overhaul. */
   nextOverhaulEngineHours: number | null;
+  /** The profile's piston overhaul interval in running hours. */
+  overhaulIntervalHours?: number | null;
 };
 
 export type ProjectionSummary = Projection & { dates: DateProjection | null };
@@ -24,6 +27,8 @@ export type ProjectionSummary = Projection & { dates: DateProjection | null };
 /** The per-unit result the fleet screens read; stored as JSON in unit_analysis.summary. */
 export type UnitSummary = {
   band: UnitBand;
+  /** Engine hours of the last approved overhaul plus the profile's interval (the stored plan before any). */
+  nextOverhaulEngineHours: number | null;
   linerHours: number | null;
   lastInspectedOn: string | null;
   lastEngineHours: number | null;
@@ -58,8 +63,8 @@ export function computeUnitAnalysis(input: UnitInput): UnitAnalysis {
   const latest = liner.latest;
   const rate = rateOf(input.hoursLog);
   const ringCurrent = latestRingInspection(input.ringInspections);
-  const hoursToNext =
-    input.nextOverhaulEngineHours !== null && latest ? input.nextOverhaulEngineHours - latest.engineHours : null;
+  const nextOverhaul = nextOverhaulEngineHours(input);
+  const hoursToNext = nextOverhaul !== null && latest ? nextOverhaul - latest.engineHours : null;
   const rings = ringCurrent
     ? analyseRings(input.profile.rings as RingPositionSpec[], ringCurrent, input.ringInspections, { hoursToNextOverhaul: hoursToNext })
     : null;
@@ -67,12 +72,13 @@ export function computeUnitAnalysis(input: UnitInput): UnitAnalysis {
     profile: input.profile,
     liner,
     rings,
-    nextOverhaul: input.nextOverhaulEngineHours !== null ? { engineHours: input.nextOverhaulEngineHours } : null,
+    nextOverhaul: nextOverhaul !== null ? { engineHours: nextOverhaul } : null,
   });
   const ref = latest ? { linerHours: latest.linerHours, date: latest.date } : null;
   const trend = liner.wear.trend;
   const summary: UnitSummary = {
     band,
+    nextOverhaulEngineHours: nextOverhaul,
     linerHours: latest?.linerHours ?? null,
     lastInspectedOn: latest?.date ?? null,
     lastEngineHours: latest?.engineHours ?? null,
@@ -103,6 +109,20 @@ export function computeUnitAnalysis(input: UnitInput): UnitAnalysis {
     issues: liner.issues.map((i) => i.message),
   };
   return { summary, liner, rings };
+}
+
+/**
+ * The next piston overhaul in engine hours: the last approved overhaul of the unit (every
+ * gauging is taken with the piston out, whatever liner was in) plus the profile's overhaul
+ * interval. Before the unit has any approved overhaul, the plan stored on the unit stands.
+ */
+export function nextOverhaulEngineHours(input: Pick<UnitInput, "ringInspections" | "overhaulIntervalHours" | "nextOverhaulEngineHours">): number | null {
+  const interval = input.overhaulIntervalHours;
+  let last: number | null = null;
+  for (const i of input.ringInspections) if (Number.isFinite(i.engineHours) && (last === null || i.engineHours > last)) last = i.engineHours;
+  if (last === null || interval == null || !Number.isFinite(interval) || interval <= 0) return input.nextOverhaulEngineHours;
+  // Hours are kept to 0.1 h; the sum is rounded to that so it compares equal to the stored figure.
+  return Math.round((last + interval) * 10) / 10;
 }
 
 // Units of one engine share one log array; its running rate is worked out once.

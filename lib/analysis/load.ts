@@ -3,7 +3,9 @@ import type { RingInspection } from "@/lib/rings/rings";
 import type { RunningHoursEntry } from "@/lib/wear/calendar";
 import type { ContextProfile } from "@/lib/inspections/context";
 import type { Inspection, StationRole, WearProfile } from "@/lib/wear/types";
+import { asFittedGauging, correctedAsFittedReadings } from "@/lib/wear/as-fitted";
 import type { UnitInput } from "./compute";
+import { toGauging } from "./input";
 
 /*
  * Loaders for the analysis, taking the connection as a parameter so a mutation can run
@@ -172,20 +174,22 @@ export async function loadUnitInputs(
     const profile = profiles.get(u.profile_id)!;
     const all = inspByUnit.get(u.id) ?? [];
     const ofLiner = all.filter((i) => i.liner_id === u.liner_id);
-    const toInspection = (i: (typeof all)[number]): Inspection => ({
-      id: String(i.id),
-      date: i.inspected_on,
-      engineHours: Number(i.engine_hours),
-      linerHours: Number(i.liner_hours),
-      gaugeTempC: i.gauge_temp_c === null ? null : Number(i.gauge_temp_c),
-      linerTempC: i.liner_temp_c === null ? null : Number(i.liner_temp_c),
-      readings: readingsByInsp.get(i.id) ?? [],
-    });
+    const toInspection = (i: (typeof all)[number]): Inspection =>
+      toGauging(
+        i.id,
+        {
+          inspectedOn: i.inspected_on,
+          engineHours: Number(i.engine_hours),
+          linerHours: Number(i.liner_hours),
+          gaugeTempC: i.gauge_temp_c === null ? null : Number(i.gauge_temp_c),
+          linerTempC: i.liner_temp_c === null ? null : Number(i.liner_temp_c),
+        },
+        readingsByInsp.get(i.id) ?? [],
+      );
     const linerInspections = ofLiner.map(toInspection);
-    let asFitted: Inspection["readings"] | undefined;
-    if (profile.wearReference === "as_fitted" && linerInspections.length) {
-      asFitted = [...linerInspections].sort((a, b) => a.date.localeCompare(b.date))[0].readings;
-    }
+    // The same as-fitted rule as the sheet and the record: the earliest approved gauging, corrected to 20 °C.
+    const reference = profile.wearReference === "as_fitted" ? asFittedGauging(linerInspections) : null;
+    const asFitted = reference ? correctedAsFittedReadings(profile, reference) : undefined;
     return {
       unitId: u.id,
       linerId: u.liner_id,
@@ -207,6 +211,7 @@ export async function loadUnitInputs(
       })),
       hoursLog: logByEngine.get(u.engine_id) ?? [],
       nextOverhaulEngineHours: u.next_overhaul_engine_hours === null ? null : Number(u.next_overhaul_engine_hours),
+      overhaulIntervalHours: profile.overhaulIntervalHours,
     };
   });
   return { units: out, profiles };

@@ -8,8 +8,15 @@ import { loadProfiles, loadUnitInputs, type ProfileRow } from "./load";
  * so the fleet screens read one small row per unit instead of recomputing.
  */
 
-function toRow(input: UnitInput) {
+type NextOverhaulChange = { unitId: number; engineHours: number | null };
+
+function toRow(input: UnitInput, changes?: NextOverhaulChange[]) {
   const { summary } = computeUnitAnalysis(input);
+  const next = summary.nextOverhaulEngineHours;
+  const stored = input.nextOverhaulEngineHours;
+  if (changes && (next === null ? stored !== null : stored === null || Math.abs(next - stored) >= 0.05)) {
+    changes.push({ unitId: input.unitId, engineHours: next });
+  }
   const limit = earliestLimit(summary);
   const wearAt = summary.wear.kind === "projected" ? summary.wear.atLinerHours : null;
   return {
@@ -31,12 +38,13 @@ function toRow(input: UnitInput) {
 }
 
 /**
- * A copy with every fraction cut to six significant digits, finer than any gauge; full float
+ * A copy with every fraction cut to ten significant digits (running hours keep their 0.1 h, so a
+ * screen reading the stored figure rounds the same number as one reading the record); full float
  * noise only bloats the row. A plain walk, because a JSON.stringify replacer is called for
  * every key and was most of the cost of storing a summary.
  */
 function roundForStorage(value: unknown): unknown {
-  if (typeof value === "number") return Number.isInteger(value) || !Number.isFinite(value) ? value : Number(value.toPrecision(6));
+  if (typeof value === "number") return Number.isInteger(value) || !Number.isFinite(value) ? value : Number(value.toPrecision(10));
   if (value === null || typeof value !== "object") return value;
   if (Array.isArray(value)) {
     const out = new Array(value.length);
@@ -78,10 +86,21 @@ async function upsert(db: Knex | Knex.Transaction, rows: ReturnType<typeof toRow
   }
 }
 
+/**
+ * Keeps the unit's planned next overhaul (read by the unit chooser and the engine screens) equal
+ * to the one the analysis derives from the last approved overhaul. Only units whose figure moved
+ * are written, so a fleet recompute with nothing new writes nothing here.
+ */
+async function storeNextOverhauls(db: Knex | Knex.Transaction, changes: NextOverhaulChange[]) {
+  for (const c of changes) await db("cylinder_units").where({ id: c.unitId }).update({ next_overhaul_engine_hours: c.engineHours });
+}
+
 /** Recomputes and stores the analysis of the given units (or all units of the given engines). */
 export async function recomputeUnits(db: Knex | Knex.Transaction, filter: { unitIds?: number[]; engineIds?: number[] }): Promise<number> {
   const { units } = await loadUnitInputs(db, filter);
-  await upsert(db, units.map(toRow));
+  const changes: NextOverhaulChange[] = [];
+  await upsert(db, units.map((u) => toRow(u, changes)));
+  await storeNextOverhauls(db, changes);
   return units.length;
 }
 
@@ -105,9 +124,10 @@ export async function recomputeAllUnits(db: Knex, options: { enginesPerBatch?: n
   for (let i = 0; next; i += batch) {
     const { units } = await next;
     next = i + batch < engineIds.length ? load(i + batch) : null;
-    const rows = units.map(toRow);
+    const changes: NextOverhaulChange[] = [];
+    const rows = units.map((u) => toRow(u, changes));
     await writing;
-    if (store) writing = upsert(db, rows);
+    if (store) writing = upsert(db, rows).then(() => storeNextOverhauls(db, changes));
     n += units.length;
   }
   await writing;

@@ -1,10 +1,12 @@
 import "server-only";
 import { unstable_rethrow } from "next/navigation";
-import type { ZodError, ZodType } from "zod";
+import type { ZodType } from "zod";
+import { fieldMessages } from "@/lib/validation/issues";
 import type { ActionCode, ActionState, FieldErrors } from "./action-state";
 import { can, type Permission } from "./permissions";
 import { actionRule, type ActionName } from "./route-rules";
-import { canSeeVessel, getCurrentUser, type CurrentUser } from "./session";
+import { canSeeVessel } from "./scope";
+import { getCurrentUser, type CurrentUser } from "./session";
 
 /** Thrown inside an action body to refuse with a message and, optionally, the field at fault. */
 export class ActionError extends Error {
@@ -48,16 +50,6 @@ function echo(values: Record<string, unknown>): Record<string, unknown> {
   return Object.fromEntries(Object.entries(values).filter(([k]) => !SECRET_KEY.test(k)));
 }
 
-/** Zod issues keyed by dotted path; issues on the whole object go under "" for the form message. */
-export function zodFieldErrors(error: ZodError): FieldErrors {
-  const out: FieldErrors = {};
-  for (const issue of error.issues) {
-    const key = issue.path.map(String).join(".");
-    (out[key] ??= []).push(issue.message);
-  }
-  return out;
-}
-
 const refuse = (code: ActionCode, message: string, values: Record<string, unknown>, fieldErrors: FieldErrors = {}): ActionState => ({
   ok: false,
   code,
@@ -82,7 +74,7 @@ export function validatedActionWithPermission<S extends ZodType, T = unknown>(
     const values = toObject(input);
     const parsed = schema.safeParse(values);
     if (!parsed.success) {
-      const fieldErrors = zodFieldErrors(parsed.error);
+      const fieldErrors = fieldMessages(parsed.error);
       return refuse("invalid", fieldErrors[""]?.[0] ?? "Check the fields marked below.", values, fieldErrors) as ActionState<T>;
     }
     let user: CurrentUser | null = null;
@@ -95,9 +87,9 @@ export function validatedActionWithPermission<S extends ZodType, T = unknown>(
     try {
       if (options.vesselOf) {
         vesselId = await options.vesselOf(parsed.data);
-        if (vesselId === null) return refuse("not_found", "That record no longer exists.", values) as ActionState<T>;
-        if (!user || !canSeeVessel(user, vesselId)) {
-          return refuse("forbidden", "You are not assigned to this vessel.", values) as ActionState<T>;
+        // "Not there" and "not on your vessels" are one answer, so ids cannot be probed.
+        if (vesselId === null || !user || !canSeeVessel(user, vesselId)) {
+          return refuse("not_found", "That record does not exist, or it is on a vessel you are not assigned to.", values) as ActionState<T>;
         }
       }
       const result = (await fn(parsed.data, { user, vesselId })) ?? {};

@@ -3,7 +3,8 @@ import type { Role } from "./roles";
 /**
  * THE permission table. Every page, server action and route handler asks `can()`;
  * nothing else decides who may do what. Vessel scope (which vessels a person sees)
- * is the second half of every check and lives in session.ts / scope helpers.
+ * is the second half of every check and lives in scope.ts. Only permissions that
+ * something checks are listed: a feature adds its permission with its first check.
  */
 export const PERMISSIONS = {
   /** Own account: who am I, my vessels. Every signed-in role. */
@@ -17,12 +18,7 @@ export const PERMISSIONS = {
   "inspection.return": ["chief_engineer"],
   "inspection.amend": ["chief_engineer"],
   "photo.upload": ["chief_engineer", "engineer"],
-  "import.create": ["chief_engineer", "engineer"],
   "hoursLog.write": ["chief_engineer"],
-  "comment.create": ["superintendent", "chief_engineer"],
-  "renewal.plan": ["superintendent"],
-  "spares.manage": ["superintendent"],
-  "data.export": ["superintendent", "chief_engineer"],
   /** Users, roles, vessel assignments, invitations. */
   "admin.users": ["admin"],
   /** Vessels, companies and main engines (with their cylinder units). */

@@ -32,6 +32,7 @@ export const API_ROUTE_RULES = {
   "POST /api/inspections": { permission: "inspection.create", vesselScoped: true },
   "GET /api/inspections/[inspectionId]": { permission: "fleet.read", vesselScoped: true },
   "PUT /api/inspections/[inspectionId]": { permission: "inspection.editDraft", vesselScoped: true },
+  "DELETE /api/inspections/[inspectionId]": { permission: "inspection.editDraft", vesselScoped: true },
   "POST /api/inspections/[inspectionId]/submit": { permission: "inspection.submit", vesselScoped: true },
   "POST /api/inspections/[inspectionId]/approve": { permission: "inspection.approve", vesselScoped: true },
   "POST /api/inspections/[inspectionId]/return": { permission: "inspection.return", vesselScoped: true },

@@ -44,7 +44,3 @@ export async function requirePermission(permission: Permission): Promise<Current
   if (!can(user.role, permission)) redirect(`/no-access?need=${encodeURIComponent(permission)}`);
   return user;
 }
-
-export function canSeeVessel(user: CurrentUser, vesselId: number): boolean {
-  return user.vessels === "all" || user.vessels.includes(vesselId);
-}

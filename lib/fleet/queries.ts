@@ -2,11 +2,35 @@ import "server-only";
 import type { Knex } from "knex";
 import { db } from "@/lib/db/knex";
 import type { CurrentUser } from "@/lib/auth/session";
+import { whereVesselInScope } from "@/lib/auth/scope";
 
 /** Restricts a query on `vessels` (aliased `v`) to what the user may see. */
-function scopeVessels(q: Knex.QueryBuilder, user: CurrentUser, column = "v.id") {
-  if (user.vessels !== "all") q.whereIn(column, user.vessels.length ? user.vessels : [-1]);
-  return q;
+const scopeVessels = (q: Knex.QueryBuilder, user: CurrentUser) => whereVesselInScope(q, user, "v.id");
+
+/*
+ * The vessel a record belongs to, for the route wrapper's scope check: null when the id
+ * names nothing (or could not, e.g. a malformed id parsed to null), answered 404 alike.
+ */
+
+/** The vessel id when that vessel exists, else null. */
+export async function getVesselIdIfExists(vesselId: number | null): Promise<number | null> {
+  if (vesselId === null) return null;
+  const row = await db("vessels").where({ id: vesselId }).first("id");
+  return row ? Number(row.id) : null;
+}
+
+/** The vessel of a main engine, or null when the engine does not exist. */
+export async function getEngineVesselId(engineId: number | null): Promise<number | null> {
+  if (engineId === null) return null;
+  const row = await db("main_engines").where({ id: engineId }).first("vessel_id");
+  return row ? Number(row.vessel_id) : null;
+}
+
+/** The vessel of a cylinder unit, or null when the unit does not exist. */
+export async function getUnitVesselId(unitId: number | null): Promise<number | null> {
+  if (unitId === null) return null;
+  const row = await db("cylinder_units as u").join("main_engines as e", "e.id", "u.engine_id").where("u.id", unitId).first("e.vessel_id as vesselId");
+  return row ? Number(row.vesselId) : null;
 }
 
 export type BandCounts = Record<string, number>;

@@ -1,13 +1,11 @@
 import "server-only";
 import type { Knex } from "knex";
 import type { CurrentUser } from "@/lib/auth/session";
+import { whereVesselInScope } from "@/lib/auth/scope";
 import { db } from "@/lib/db/knex";
 
 /** Limits a query joined to `main_engines as e` to the user's vessels. */
-function inScope(q: Knex.QueryBuilder, user: CurrentUser) {
-  if (user.vessels !== "all") q.whereIn("e.vessel_id", user.vessels.length ? user.vessels : [-1]);
-  return q;
-}
+const inScope = (q: Knex.QueryBuilder, user: CurrentUser) => whereVesselInScope(q, user, "e.vessel_id");
 
 export type HomeInspectionRow = {
   id: number;

@@ -82,13 +82,27 @@ export async function loadInspectionContext(conn: Conn, unitId: number, options:
 
   let asFitted: InspectionContext["asFitted"] = null;
   if (profile.wearReference === "as_fitted") {
-    const first = await conn("inspections")
-      .where({ liner_id: liner.id, state: "approved" })
-      .whereNot("id", options.inspection?.id ?? 0)
-      .orderBy("inspected_on", "asc")
-      .first("id");
+    // Candidates for the as-fitted gauging, in the order of the as-fitted rule (lib/wear/as-fitted.ts);
+    // this inspection itself is compared with it where the analysis input is built.
+    const firstQ = conn("inspections").where({ liner_id: liner.id, state: "approved" });
+    if (exclude.length) firstQ.whereNotIn("id", exclude);
+    const first = await firstQ
+      .orderBy([
+        { column: "inspected_on", order: "asc" },
+        { column: "liner_hours", order: "asc" },
+        { column: "id", order: "asc" },
+      ])
+      .first("id", "inspected_on", "engine_hours", "liner_hours", "gauge_temp_c", "liner_temp_c");
     if (first) {
-      asFitted = (await readingsOf(conn, first.id)).map((r) => ({ stationKey: r.station_key, axisKey: r.axis_key, diameterMm: Number(r.diameter_mm) }));
+      asFitted = {
+        id: String(first.id),
+        date: first.inspected_on,
+        engineHours: Number(first.engine_hours),
+        linerHours: Number(first.liner_hours),
+        gaugeTempC: num(first.gauge_temp_c),
+        linerTempC: num(first.liner_temp_c),
+        readings: (await readingsOf(conn, first.id)).map((r) => ({ stationKey: r.station_key, axisKey: r.axis_key, diameterMm: Number(r.diameter_mm) })),
+      };
     }
   }
 

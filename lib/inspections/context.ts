@@ -1,5 +1,5 @@
 import type { RunningHoursEntry } from "@/lib/wear/calendar";
-import type { LinerReading, StationRole, WearProfile } from "@/lib/wear/types";
+import type { Inspection, LinerReading, StationRole, WearProfile } from "@/lib/wear/types";
 
 /*
  * What the entry form and the server's checks need to know about the unit being
@@ -67,8 +67,12 @@ export type InspectionContext = {
   previous: PreviousInspection | null;
   /** Recent running-hours log entries, oldest first. */
   hoursLog: RunningHoursEntry[];
-  /** The liner's first approved readings, when the profile measures wear from the as-fitted bore. */
-  asFitted: LinerReading[] | null;
+  /**
+   * When the profile measures wear from the as-fitted bore: the liner's earliest approved
+   * gauging other than this one and the version it amends. The as-fitted rule
+   * (lib/wear/as-fitted.ts, through lib/analysis/input.ts) chooses between it and this gauging.
+   */
+  asFitted: Inspection | null;
 };
 
 /** The pure wear computations' view of a profile. */

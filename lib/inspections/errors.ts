@@ -1,15 +1,8 @@
+import { HttpError } from "@/lib/http/errors";
+
 /**
- * A refusal from the inspection and photo mutations, with the HTTP status it maps to.
- * Kept free of Next.js imports so scripts and tests can run the mutations directly;
- * the route handlers turn it into a JSON answer (lib/inspections/http.ts).
+ * A refusal from the inspection and photo mutations: the API's one error type under the
+ * name those mutations use, so the route wrapper answers it directly.
  */
-export class RecordError extends Error {
-  constructor(
-    public status: 400 | 403 | 404 | 409,
-    message: string,
-    public details?: Record<string, unknown>,
-  ) {
-    super(message);
-    this.name = "RecordError";
-  }
-}
+export const RecordError = HttpError;
+export type RecordError = HttpError;

@@ -1,9 +1,9 @@
 import "server-only";
 import type { ZodType } from "zod";
 import { HttpError, parseId } from "@/lib/auth/api";
-import { RecordError } from "./errors";
+import { parseRecordId } from "@/lib/validation/ids";
+import { describeIssues } from "@/lib/validation/issues";
 import { getInspectionVesselId, getUnitVesselId } from "./queries";
-import { describeIssues } from "./schemas";
 
 /**
  * Reads a JSON body and parses it with the same schema the form uses. Anything the
@@ -14,7 +14,7 @@ export async function readBody<S extends ZodType>(req: Request, schema: S, optio
   try {
     body = await req.json();
   } catch {
-    throw new HttpError(400, "The request body is not valid JSON.", { field: "(request)" });
+    throw new HttpError(400, "The request body is not valid JSON.", { field: "" });
   }
   const parsed = schema.safeParse(body);
   if (!parsed.success) {
@@ -31,9 +31,8 @@ export async function readBody<S extends ZodType>(req: Request, schema: S, optio
 
 /** vesselOf for routes under /api/inspections/[inspectionId]. */
 export async function vesselOfInspection(_req: Request, params: { inspectionId: string }): Promise<number | null> {
-  const id = Number(params.inspectionId);
-  if (!Number.isInteger(id) || id <= 0) return null;
-  return getInspectionVesselId(id);
+  const id = parseRecordId(params.inspectionId);
+  return id === null ? null : getInspectionVesselId(id);
 }
 
 /** vesselOf for POST /api/inspections: the unit named in the body. */
@@ -42,25 +41,11 @@ export async function vesselOfUnitInBody(req: Request): Promise<number | null> {
   try {
     body = (await req.clone().json()) as { unitId?: unknown };
   } catch {
-    throw new HttpError(400, "The request body is not valid JSON.", { field: "(request)" });
+    throw new HttpError(400, "The request body is not valid JSON.", { field: "" });
   }
-  const id = body?.unitId;
-  if (typeof id !== "number" || !Number.isInteger(id) || id <= 0) {
-    throw new HttpError(400, "Choose the unit to inspect. (field: unitId)", { field: "unitId" });
-  }
+  const id = typeof body?.unitId === "number" ? parseRecordId(String(body.unitId)) : null;
+  if (id === null) throw new HttpError(400, "Choose the unit to inspect. (field: unitId)", { field: "unitId" });
   return getUnitVesselId(id);
 }
 
 export const inspectionIdOf = (params: { inspectionId: string }) => parseId(params.inspectionId, "Inspection");
-
-/** Turns the mutations' RecordError into the route wrapper's HttpError (same status, message and details). */
-export function mapRecordErrors<A extends unknown[]>(handler: (...args: A) => Promise<Response>): (...args: A) => Promise<Response> {
-  return async (...args: A) => {
-    try {
-      return await handler(...args);
-    } catch (err) {
-      if (err instanceof RecordError) throw new HttpError(err.status, err.message, err.details);
-      throw err;
-    }
-  };
-}

@@ -4,7 +4,8 @@ import { recomputeUnits } from "@/lib/analysis/recompute";
 import { writeAudit } from "@/lib/audit/mutations";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
-import { analyseInspection } from "@/lib/wear/inspection";
+import { analyseGauging, toGauging } from "@/lib/analysis/input";
+import { removeObject } from "@/lib/photos/storage";
 import { toWearProfile, type InspectionContext } from "./context";
 import { DEFAULT_TALLY_LABELS } from "./form";
 import { loadInspectionContext } from "./context-queries";
@@ -54,11 +55,23 @@ function headerColumns(h: InspectionDraft["header"]) {
   };
 }
 
-export type CreatedInspection = { id: number; created: boolean };
+export type CreatedInspection = { id: number; created: boolean; existing?: boolean };
+
+/**
+ * The unit's open draft (a new record being entered or one returned for correction, not an
+ * amendment), read with a lock so a second request waiting on the unit sees what the first wrote.
+ */
+async function openDraftOf(trx: Knex.Transaction, unitId: number): Promise<number | null> {
+  const row = await trx("inspections").where({ unit_id: unitId }).whereIn("state", EDITABLE).whereNull("supersedes_id").orderBy("id").forUpdate().first("id");
+  return row ? (row.id as number) : null;
+}
 
 /**
  * Opens a draft for a unit's current liner. Repeating the request with the same
- * `clientToken` (a double tap, a retry after a lost answer) returns the same row.
+ * `clientToken` (a double tap, a retry after a lost answer) returns the same row, and a
+ * unit holds one open draft: when it already has one (opened on another device, or by a
+ * crew mate), that draft is answered (`existing`) instead of a second one. The unit's row
+ * is locked first, so two requests at once are served one after the other.
  */
 export async function createInspection(actor: Actor, input: CreateInspectionInput, db: Knex = defaultDb): Promise<CreatedInspection> {
   const existing = async () => db("inspections").where({ client_token: input.clientToken }).first("id", "unit_id");
@@ -69,6 +82,10 @@ export async function createInspection(actor: Actor, input: CreateInspectionInpu
   }
   try {
     return await db.transaction(async (trx) => {
+      // Serialises creates on this unit: the second waits here and then finds the first's draft.
+      await trx("cylinder_units").where({ id: input.unitId }).forUpdate().first("id");
+      const open = await openDraftOf(trx, input.unitId);
+      if (open !== null) return { id: open, created: false, existing: true };
       const ctx = await loadInspectionContext(trx, input.unitId, { inspectedOn: input.inspectedOn });
       if (!ctx) throw new RecordError(400, "This unit has no liner in service. Record the fitted liner before gauging it. (field: unitId)", { field: "unitId" });
       const linerHours = input.linerHours ?? derivedLinerHours(ctx.liner, input.engineHours);
@@ -284,15 +301,7 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       );
     }
     await recomputeUnits(trx, { unitIds: [row.unitId] });
-    const analysis = analyseInspection(toWearProfile(ctx.profile), {
-      id: String(id),
-      date: draft.header.inspectedOn,
-      engineHours: draft.header.engineHours,
-      linerHours: draft.header.linerHours,
-      gaugeTempC: draft.header.gaugeTempC,
-      linerTempC: draft.header.linerTempC,
-      readings: draft.readings,
-    });
+    const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
     await writeAudit(
       {
         actor,
@@ -394,6 +403,78 @@ export async function amendInspection(actor: Actor, id: number, reason: string, 
     }
     throw err;
   }
+}
+
+export type DiscardedDraft = { id: number; unitId: number; deletedObjects: number };
+
+/**
+ * Discards a draft opened by mistake: only its author may, and only while it is a draft
+ * (never submitted; a returned record was seen by the chief engineer and is corrected
+ * instead). The row goes, and with it its readings, rings, checklist and photo links; the
+ * photos' objects leave the store unless another version of the record still shares them.
+ * The audit entry keeps what was discarded, so the trail still explains the gap.
+ */
+export async function discardDraft(actor: Actor, id: number, db: Knex = defaultDb): Promise<DiscardedDraft> {
+  const { keys, unitId } = await db.transaction(async (trx) => {
+    const row = await getInspectionRow(trx, id, true);
+    if (!row) throw new RecordError(404, "Inspection not found.");
+    if (row.state !== "draft") {
+      await conflict(
+        trx,
+        id,
+        row.state === "returned"
+          ? "This record was returned by the chief engineer for correction; correct it and submit it again rather than discarding it."
+          : `This inspection is ${row.state}; only a draft can be discarded.`,
+      );
+    }
+    if (row.createdBy !== actor.id) throw new RecordError(403, "Only the person who opened this draft can discard it.");
+    const header = await trx("inspections").where({ id }).first("inspected_on", "engine_hours", "liner_hours", "crew", "client_token");
+    const [readings, rings, photos] = await Promise.all([
+      trx("liner_readings").where({ inspection_id: id }).count({ n: "*" }).first(),
+      trx("ring_readings").where({ inspection_id: id }).count({ n: "*" }).first(),
+      trx("inspection_photos as p")
+        .join("stored_files as f", "f.id", "p.file_id")
+        .leftJoin("stored_files as t", "t.id", "p.thumbnail_file_id")
+        .where("p.inspection_id", id)
+        .select<{ fileId: number; objectKey: string; thumbId: number | null; thumbKey: string | null }[]>("p.file_id as fileId", "f.object_key as objectKey", "t.id as thumbId", "t.object_key as thumbKey"),
+    ]);
+    await trx("inspections").where({ id, state: "draft" }).delete();
+    // Photos an amendment shares with its original stay with the original.
+    const keys: string[] = [];
+    for (const p of photos) {
+      if (await trx("inspection_photos").where({ file_id: p.fileId }).first("id")) continue;
+      const ids = [p.fileId, ...(p.thumbId ? [p.thumbId] : [])];
+      await trx("stored_files").whereIn("id", ids).update({ status: "deleted" });
+      keys.push(p.objectKey, ...(p.thumbKey ? [p.thumbKey] : []));
+    }
+    await writeAudit(
+      {
+        actor,
+        action: "inspection.discard",
+        entityType: "inspection",
+        entityId: id,
+        vesselId: row.vesselId,
+        detail: {
+          unitId: row.unitId,
+          version: row.version,
+          supersedes: row.supersedesId,
+          inspectedOn: header?.inspected_on instanceof Date ? header.inspected_on.toISOString().slice(0, 10) : (header?.inspected_on ?? null),
+          engineHours: header ? Number(header.engine_hours) : null,
+          linerHours: header ? Number(header.liner_hours) : null,
+          crew: header?.crew ?? null,
+          readings: Number(readings?.n ?? 0),
+          rings: Number(rings?.n ?? 0),
+          photos: photos.length,
+          objectsDeleted: keys.length,
+        },
+      },
+      trx,
+    );
+    return { keys, unitId: row.unitId };
+  });
+  // After the commit: a failed object delete leaves an orphan in the store, never a record pointing at nothing.
+  for (const k of keys) await removeObject(k).catch((err) => console.error("removing a discarded photo failed", k, err));
+  return { id, unitId, deletedObjects: keys.length };
 }
 
 /** For the photo steps: the inspection must exist and still be editable; returns its row, locked. */

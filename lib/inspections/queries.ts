@@ -1,5 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
+import { canSeeVessel, whereVesselInScope } from "@/lib/auth/scope";
 import type { CurrentUser } from "@/lib/auth/session";
 import { db } from "@/lib/db/knex";
 import { loadInspectionContext, readingsOf } from "./context-queries";
@@ -10,8 +11,6 @@ import { emptyChecklist } from "./schemas";
 
 type Conn = Knex | Knex.Transaction;
 
-// Same rule as canSeeVessel in lib/auth/session.ts, kept here so scripts can load this module without Next.js.
-const canSeeVessel = (user: CurrentUser, vesselId: number) => user.vessels === "all" || user.vessels.includes(vesselId);
 
 
 /** The vessel a unit belongs to, or null when the unit does not exist. */
@@ -236,8 +235,7 @@ export async function listUnitsToInspect(user: CurrentUser) {
       "l.serial as linerSerial",
       "a.last_inspected_on as lastInspectedOn",
     );
-  if (user.vessels !== "all") q.whereIn("v.id", user.vessels.length ? user.vessels : [-1]);
-  const rows = await q;
+  const rows = await whereVesselInScope(q, user, "v.id");
   return rows.map((r) => ({ ...r, nextOverhaulEngineHours: num(r.nextOverhaulEngineHours) })) as {
     id: number;
     cylinderNo: number;

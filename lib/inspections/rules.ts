@@ -1,3 +1,4 @@
+import { inspectionAnalysisInput, toGauging } from "@/lib/analysis/input";
 import { ringState, type RingState } from "@/lib/rings/rings";
 import { formatRunningHours, parseIsoDate, runningHoursPerDay, type RunningHoursEntry } from "@/lib/wear/calendar";
 import { temperatureCorrection } from "@/lib/wear/correction";
@@ -144,7 +145,8 @@ export function readingWarnings(ctx: InspectionContext, draft: Pick<InspectionDr
   const prev = ctx.previous && ctx.previous.linerId === ctx.liner.id ? ctx.previous : null;
   const prevFactor = prev ? correctionFactor(ctx.profile, prev.gaugeTempC, prev.linerTempC) : 1;
   const prevCells = new Map((prev?.readings ?? []).map((r) => [cellKey(r.stationKey, r.axisKey), r.diameterMm * prevFactor]));
-  const asFitted = new Map((ctx.asFitted ?? []).map((r) => [cellKey(r.stationKey, r.axisKey), r.diameterMm]));
+  const { asFittedReadings } = inspectionAnalysisInput(profile, toGauging("draft", draft.header, draft.readings), ctx.asFitted);
+  const asFitted = new Map((asFittedReadings ?? []).map((r) => [cellKey(r.stationKey, r.axisKey), r.diameterMm]));
   const hoursSince = prev && Number.isFinite(draft.header.linerHours) ? draft.header.linerHours - prev.linerHours : null;
   const out = new Map<string, ReadingWarning[]>();
   for (const r of draft.readings) {

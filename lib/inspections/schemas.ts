@@ -268,14 +268,5 @@ export type InspectionDto = {
   photos: PhotoDto[];
 };
 
-/** The first issue of a failed parse, as one sentence naming the field, plus every field's messages. */
-export function describeIssues(error: z.ZodError): { message: string; field: string; fields: Record<string, string[]> } {
-  const fields: Record<string, string[]> = {};
-  for (const issue of error.issues) {
-    const key = issue.path.map(String).join(".") || "(request)";
-    (fields[key] ??= []).push(issue.message);
-  }
-  const first = error.issues[0];
-  const field = first ? first.path.map(String).join(".") || "(request)" : "(request)";
-  return { message: first ? `${first.message} (field: ${field})` : "The request is not valid.", field, fields };
-}
+// Forms and routes turn zod issues into messages one way (lib/validation/issues.ts).
+export { describeIssues } from "@/lib/validation/issues";

@@ -25,9 +25,20 @@ export type LinearFit = {
   sxx: number;
   /** Σx², the spread that governs the through-origin intervals. */
   sumX2: number;
+  /**
+   * The residual standard deviation as computed, before any floor; `residualSd` (and `mse`,
+   * which the intervals use) are floored at `minResidualSd` when one is given.
+   */
+  rawResidualSd: number;
   residuals: number[];
   /** Internally studentized residuals e / (s·√(1 − h)); null where the leverage h is 1. */
   standardizedResiduals: (number | null)[];
+  /**
+   * Externally studentized (deleted) residuals e / (s₍ᵢ₎·√(1 − h)), where s₍ᵢ₎ is the residual
+   * standard deviation of the fit without point i; null where the leverage is 1 or no degree of
+   * freedom is left once a point is deleted (n − params < 2).
+   */
+  deletedResiduals: (number | null)[];
 };
 
 export type FitResult =
@@ -60,7 +71,7 @@ export const DEFAULT_CONFIDENCE = 0.95;
  * reason instead of a fit when there are too few points, no spread in x, or non-finite data,
  * so a caller never receives NaN.
  */
-export function fitLine(points: readonly XY[], options: { throughOrigin?: boolean } = {}): FitResult {
+export function fitLine(points: readonly XY[], options: { throughOrigin?: boolean; minResidualSd?: number } = {}): FitResult {
   const model: FitModel = options.throughOrigin ? "through_origin" : "intercept";
   const params = model === "intercept" ? 2 : 1;
   const n = points.length;
@@ -99,17 +110,35 @@ export function fitLine(points: readonly XY[], options: { throughOrigin?: boolea
   const residuals = points.map((p) => p.y - (intercept + slope * p.x));
   const sse = residuals.reduce((s, e) => s + e * e, 0);
   const df = n - params;
-  const mse = sse / df;
-  const residualSd = Math.sqrt(mse);
+  const rawResidualSd = Math.sqrt(sse / df);
+  // No fit is surer than the instrument that read the points: a perfect line through three
+  // readings would otherwise give a prediction band of zero width.
+  const floor = options.minResidualSd !== undefined && Number.isFinite(options.minResidualSd) && options.minResidualSd > 0 ? options.minResidualSd : 0;
+  const residualSd = Math.max(rawResidualSd, floor);
+  const mse = residualSd * residualSd;
   const total = model === "intercept" ? syy : sumY2;
   const rSquared = sse === 0 || !(total > 0) ? 1 : 1 - sse / total;
   // Sums can overflow for extreme inputs even when every value is finite.
   if (![slope, intercept, mse, rSquared, sxx, sumX2].every(Number.isFinite)) return { kind: "degenerate", reason: "non_finite" };
-  const standardizedResiduals = points.map((p, i) => {
-    const h = leverage(model, n, p.x, xMean, spread);
-    if (residualSd === 0) return 0;
-    return h < 1 ? residuals[i] / (residualSd * Math.sqrt(1 - h)) : null;
-  });
+  const standardizedResiduals: (number | null)[] = [];
+  const deletedResiduals: (number | null)[] = [];
+  for (let i = 0; i < n; i++) {
+    const h = leverage(model, n, points[i].x, xMean, spread);
+    const e = residuals[i];
+    if (!(h < 1)) {
+      standardizedResiduals.push(null);
+      deletedResiduals.push(null);
+      continue;
+    }
+    standardizedResiduals.push(residualSd === 0 ? 0 : e / (residualSd * Math.sqrt(1 - h)));
+    // SSE without point i is SSE − e²/(1 − h), on one degree of freedom fewer.
+    if (df < 2) {
+      deletedResiduals.push(null);
+      continue;
+    }
+    const sDeleted = Math.max(Math.sqrt(Math.max(0, sse - (e * e) / (1 - h)) / (df - 1)), floor);
+    deletedResiduals.push(sDeleted === 0 ? (e === 0 ? 0 : Math.sign(e) * Infinity) : e / (sDeleted * Math.sqrt(1 - h)));
+  }
 
   return {
     kind: "fit",
@@ -122,6 +151,7 @@ export function fitLine(points: readonly XY[], options: { throughOrigin?: boolea
       interceptSd: model === "intercept" ? residualSd * Math.sqrt(1 / n + (xMean * xMean) / sxx) : null,
       slopeSd: residualSd / Math.sqrt(spread),
       residualSd,
+      rawResidualSd,
       mse,
       rSquared,
       xMean,
@@ -130,8 +160,25 @@ export function fitLine(points: readonly XY[], options: { throughOrigin?: boolea
       sumX2,
       residuals,
       standardizedResiduals,
+      deletedResiduals,
     },
   };
+}
+
+/**
+ * The Bonferroni critical value for the outlier test on externally studentized residuals:
+ * |tᵢ| > t(1 − α/(2n), n − params − 1) flags point i at family level α (Kutner, Nachtsheim,
+ * Neter & Li, Applied Linear Statistical Models, 5th ed., "Bonferroni outlier test", section
+ * 10.2 — section number from memory; Cook & Weisberg, Residuals and Influence in Regression,
+ * 1982, ch. 2). The bound grows as n falls, because each of the n points is tested: with five
+ * points it is 9.925, far above a fixed 2.5 that few points could ever exceed. Null when no
+ * degree of freedom is left once a point is deleted.
+ */
+export function outlierCriticalValue(n: number, options: { alpha?: number; throughOrigin?: boolean } = {}): number | null {
+  const alpha = options.alpha ?? 0.05;
+  const df = n - (options.throughOrigin ? 1 : 2) - 1;
+  if (!(df >= 1) || !(alpha > 0 && alpha < 1)) return null;
+  return tCritical(1 - alpha / n, df);
 }
 
 /** Leverage of a point at x: 1/n + (x − x̄)²/Sxx with an intercept, x²/Σx² through the origin. */

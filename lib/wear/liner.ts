@@ -1,5 +1,5 @@
 import type { LinearFit } from "../stats/regression";
-import { fitLine, inversePredict } from "../stats/regression";
+import { fitLine, inversePredict, outlierCriticalValue } from "../stats/regression";
 import { formatFixed } from "../units/length";
 import { formatRunningHours as hoursText, parseIsoDate } from "./calendar";
 import type { InspectionAnalysis, MaxWear } from "./inspection";
@@ -18,6 +18,15 @@ export type LinerPoint = {
   maxOvalityMm: number | null;
   /** Past running-in, so part of the steady-state fits. */
   steady: boolean;
+  /**
+   * Readings of this gauging judged impossible (typing or gauge errors) and left out of its
+   * maxima, largest first. When the largest reading is among them, the point shows the
+   * next-largest usable cell, and the trend must say so.
+   */
+  excludedReadings: { stationKey: string; axisKey: string; correctedMm: number; wearMm: number }[];
+  /** True when an excluded reading would have been this gauging's maximum wear. */
+  maxWearExcluded: boolean;
+  /** Externally studentized (deleted) residual from the steady wear fit. */
   wearResidual: number | null;
   wearOutlier: boolean;
   ovalityResidual: number | null;
@@ -82,10 +91,13 @@ const valueOf = (p: LinerPoint, metric: Metric) => (metric === "wear" ? p.maxWea
  * profile's running-in hours, because wear runs fast while a liner beds in and only then settles
  * to a roughly straight line), and projections of the liner hours at which wear and ovality reach
  * their limits, each with a 95 % interval by inverse prediction.
- * Points whose internally studentized residual exceeds 2.5 in magnitude are flagged as outliers
- * and reported, but kept in the fit: a surprising reading is a question for the engineer, not a
- * reason to quietly change the answer. Dates that do not parse, hours that are not positive (or
- * absurdly large), and liner hours that fall while dates advance are reported as typed issues.
+ * A point whose externally studentized (deleted) residual exceeds the Bonferroni critical value
+ * t(1 − α/(2n), n − 3) is flagged as an outlier and reported, but kept in the fit: a surprising
+ * reading is a question for the engineer, not a reason to quietly change the answer. The residual
+ * standard deviation is floored at the gauge resolution, so neither a perfect fit nor a gauging
+ * inside the gauge's step claims more certainty than the micrometer has. A gauging at 0 liner
+ * hours (the liner gauged as fitted) belongs to the history. Dates that do not parse, negative
+ * (or absurdly large) hours, and liner hours that fall while dates advance are typed issues.
  * `asOf` (yyyy-mm-dd) restricts the history to inspections on or before that date.
  */
 export function analyseLiner(
@@ -121,7 +133,7 @@ export function analyseLiner(
     const analysis = analyseInspection(profile, inspection, options.asFittedReadings);
     result.inspections.push(analysis);
     const hours = inspection.linerHours;
-    if (!Number.isFinite(hours) || hours <= 0 || hours > MAX_PLAUSIBLE_HOURS || !Number.isFinite(inspection.engineHours)) {
+    if (!Number.isFinite(hours) || hours < 0 || hours > MAX_PLAUSIBLE_HOURS || !Number.isFinite(inspection.engineHours)) {
       issues.push({ kind: "invalid_hours", inspectionId: inspection.id, message: `Inspection of ${inspection.date} has no valid liner hours and is left out of the trend.` });
       continue;
     }
@@ -137,6 +149,10 @@ export function analyseLiner(
       issues.push({ kind: "no_usable_readings", inspectionId: inspection.id, message: `Inspection of ${inspection.date} has no usable liner readings.` });
       continue;
     }
+    const excluded = analysis.cells
+      .filter((c) => !c.usable)
+      .map((c) => ({ stationKey: c.stationKey, axisKey: c.axisKey, correctedMm: c.correctedMm, wearMm: c.wearMm }))
+      .sort((a, b) => b.wearMm - a.wearMm);
     result.points.push({
       inspectionId: inspection.id,
       date: inspection.date,
@@ -146,6 +162,8 @@ export function analyseLiner(
       maxWearAt: analysis.maxWear ? { stationKey: analysis.maxWear.stationKey, axisKey: analysis.maxWear.axisKey, depthMm: analysis.maxWear.depthMm } : null,
       maxOvalityMm: analysis.maxOvality?.ovalityMm ?? null,
       steady: hours >= profile.runningInHours,
+      excludedReadings: excluded,
+      maxWearExcluded: excluded.length > 0 && (!analysis.maxWear || excluded[0].wearMm > analysis.maxWear.wearMm),
       wearResidual: null,
       wearOutlier: false,
       ovalityResidual: null,
@@ -166,8 +184,9 @@ export function analyseLiner(
       steady: prev.steady && last.steady,
     };
   }
-  result.wear = analyseMetric(points, "wear", profile.linerWearLimitMm, needed, issues);
-  result.ovality = analyseMetric(points, "ovality", profile.ovalityLimitMm, needed, issues);
+  const resolution = gaugeResolution(profile);
+  result.wear = analyseMetric(points, "wear", profile.linerWearLimitMm, needed, resolution, issues);
+  result.ovality = analyseMetric(points, "ovality", profile.ovalityLimitMm, needed, resolution, issues);
   return result;
 }
 
@@ -176,10 +195,19 @@ export function intervalRate(fromWearMm: number, fromLinerHours: number, toWearM
   return toLinerHours > fromLinerHours ? ((toWearMm - fromWearMm) * 1000) / (toLinerHours - fromLinerHours) : null;
 }
 
-function analyseMetric(points: LinerPoint[], metric: Metric, limitMm: number, needed: number, issues: LinerIssue[]): MetricAnalysis {
+/** The profile's gauge resolution, or 0.01 mm when it gives none (or an unusable one). */
+export function gaugeResolution(profile: Pick<WearProfile, "gaugeResolutionMm">): number {
+  const r = profile.gaugeResolutionMm;
+  return r !== undefined && Number.isFinite(r) && r > 0 && r < 1 ? r : WEAR_RULES.gaugeResolutionMm;
+}
+
+function analyseMetric(points: LinerPoint[], metric: Metric, limitMm: number, needed: number, resolutionMm: number, issues: LinerIssue[]): MetricAnalysis {
   const measured = points.filter((p) => valueOf(p, metric) !== null);
   const steady = measured.filter((p) => p.steady);
-  const fitted = fitLine(steady.map((p) => ({ x: p.linerHours, y: valueOf(p, metric)! })));
+  const fitted = fitLine(
+    steady.map((p) => ({ x: p.linerHours, y: valueOf(p, metric)! })),
+    { minResidualSd: resolutionMm },
+  );
   let trend: Trend | null = null;
   const outlierInspectionIds: string[] = [];
   if (fitted.kind === "fit") {
@@ -193,9 +221,10 @@ function analyseMetric(points: LinerPoint[], metric: Metric, limitMm: number, ne
       n: fit.n,
       fit,
     };
+    const critical = outlierCriticalValue(fit.n, { alpha: WEAR_RULES.outlierFamilyAlpha });
     steady.forEach((p, i) => {
-      const r = fit.standardizedResiduals[i];
-      const outlier = r !== null && Math.abs(r) > WEAR_RULES.outlierStandardizedResidual;
+      const r = fit.deletedResiduals[i];
+      const outlier = r !== null && critical !== null && Math.abs(r) > critical;
       if (metric === "wear") Object.assign(p, { wearResidual: r, wearOutlier: outlier });
       else Object.assign(p, { ovalityResidual: r, ovalityOutlier: outlier });
       if (!outlier) return;
@@ -203,7 +232,7 @@ function analyseMetric(points: LinerPoint[], metric: Metric, limitMm: number, ne
       issues.push({
         kind: "outlier",
         inspectionId: p.inspectionId,
-        message: `The ${metric} at ${hoursText(p.linerHours)} (${p.date}) sits ${formatFixed(Math.abs(r!), 1)} standard deviations off the trend. It is kept in the fit; check the reading.`,
+        message: `The ${metric} at ${hoursText(p.linerHours)} (${p.date}) lies far off the line through the other readings (studentized deleted residual ${formatFixed(Math.abs(r!), 1)}, over the ${formatFixed(critical!, 1)} that ${fit.n} points allow). It is kept in the fit; check the reading.`,
       });
     });
   }

@@ -26,6 +26,8 @@ export type WearProfile = {
   runningInHours: number;
   /** Fewest steady-state points for a projection; at least 3, so a prediction interval exists. */
   minPointsForProjection?: number;
+  /** The smallest step the bore gauge reads; 0.01 mm (WEAR_RULES.gaugeResolutionMm) when not given. */
+  gaugeResolutionMm?: number;
   rings: RingPositionSpec[];
 };
 
@@ -54,7 +56,8 @@ export const DEFAULT_MIN_POINTS_FOR_PROJECTION = 3;
  * Thresholds behind the typed issues and bands, kept in one place so the entry form, the
  * inspection analysis and the bands agree. Sources: BrightHub Engineering articles on liner wear
  * (normal rate 0.025–0.05 mm/1000 h for slow-speed two-strokes), marineengineeringonline.com
- * (above 0.1 mm/1000 h is abnormal); the rest are common practice.
+ * (above 0.1 mm/1000 h is abnormal); the outlier test is the Bonferroni test named below; each
+ * other figure is marked "common practice" where no published source backs it.
  */
 export const WEAR_RULES = {
   /** Wear at an unworn band should be about zero; more suggests a gauge or nominal-bore problem. */
@@ -68,7 +71,17 @@ export const WEAR_RULES = {
   /** Wear does not go backwards: a drop larger than this since last time is suspicious. */
   decreaseSinceLastMm: 0.05,
   abnormalRateMmPer1000h: 0.1,
+  /** Common practice: a unit past 80 % of a limit is watched; no published source sets the figure. */
   watchFractionOfLimit: 0.8,
-  outlierStandardizedResidual: 2.5,
+  /**
+   * Family level of the Bonferroni outlier test on externally studentized residuals
+   * (Kutner et al., Applied Linear Statistical Models, section 10.2; Cook & Weisberg 1982):
+   * a point is flagged when |tᵢ| > t(1 − α/(2n), n − 3). The threshold depends on n; a fixed
+   * 2.5 on internally studentized residuals could never fire with eight or fewer points,
+   * because those cannot exceed √(n − 2).
+   */
+  outlierFamilyAlpha: 0.05,
+  /** Inside-micrometer resolution, common practice for liner gauging (0.01 mm); a profile may give its own. */
+  gaugeResolutionMm: 0.01,
   confidence: 0.95,
 } as const;

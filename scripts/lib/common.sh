@@ -136,6 +136,20 @@ load_env_file() {
   done < .env
 }
 
+# ensure_auth_secret FILE — unless BETTER_AUTH_SECRET is set, reads it from FILE, generating a
+# random one there (readable by this user only) the first time, so sessions survive restarts.
+ensure_auth_secret() {
+  local file=$1
+  if [ -n "${BETTER_AUTH_SECRET:-}" ]; then return 0; fi
+  if [ ! -s "$file" ]; then
+    mkdir -p "$(dirname "$file")"
+    (umask 077 && node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))' >"$file.tmp" && mv "$file.tmp" "$file")
+    say "generated a random BETTER_AUTH_SECRET into ${file#$ROOT/} (kept for the next runs)"
+  fi
+  BETTER_AUTH_SECRET="$(cat "$file")"
+  export BETTER_AUTH_SECRET
+}
+
 # check_env — validates configuration through the same zod schema the app uses.
 check_env() {
   npx tsx -e 'import("./lib/env.ts").catch((e) => { console.error(e.message); process.exit(1); })' \

@@ -118,7 +118,8 @@ describe("creating an inspection", () => {
     expect(rows).toHaveLength(1);
     expect(rows[0]).toMatchObject({ state: "draft", version: 1, created_by: world.users.engineer.id });
     // Two identical requests at the same moment (a double tap) still make one row.
-    const body = { ...first.sent, clientToken: randomToken(24) };
+    const otherUnit = await freshUnit();
+    const body = { ...first.sent, unitId: otherUnit, clientToken: randomToken(24) };
     const [a, b] = await Promise.all([createRoute(request("POST", "/api/inspections", body)), createRoute(request("POST", "/api/inspections", body))]);
     expect([a.status, b.status].sort()).toEqual([200, 201]);
     expect(await db("inspections").where({ client_token: body.clientToken }).count({ n: "*" }).first()).toMatchObject({ n: 1 });

@@ -141,10 +141,18 @@ export async function draftOn(unitId: number, actor: Actor, o: { complete?: bool
   const ctx = await readyUnit(unitId);
   const engineHours = o.engineHours ?? Math.max(39_000, ctx.previous?.engineHours ?? 0);
   const draft = completeDraft(ctx, { inspectedOn: daysAgo(0), engineHours, wearMm: o.wearMm });
+  // A unit holds one open draft, and a new inspection request answers it: clear what an
+  // earlier test left open so this one gets a draft of its own.
+  await clearOpenDrafts(unitId);
   const { id } = await createInspection(actor, { unitId, clientToken: randomToken(24), ...draft.header });
   if (o.complete === false) return { id, revision: 1, ctx, draft };
   const saved = await saveDraft(actor, id, 1, draft);
   return { id, revision: saved.revision, ctx, draft };
+}
+
+/** Test set-up only: removes a unit's open drafts and returned records (not amendments), rows and all. */
+export async function clearOpenDrafts(unitId: number): Promise<void> {
+  await appDb("inspections").where({ unit_id: unitId }).whereIn("state", ["draft", "returned"]).whereNull("supersedes_id").delete();
 }
 
 export async function submittedOn(unitId: number, actor: Actor, o: { wearMm?: number } = {}) {

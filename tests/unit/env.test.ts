@@ -23,3 +23,27 @@ describe("configuration schema", () => {
     expect(parseServerEnv({ SMTP_USER: "", DB_PORT: "" }).DB_PORT).toBe(3307);
   });
 });
+
+describe("the session-signing secret", () => {
+  const random = "q7Vt2mZ0xJ4rL9sK1bN8cH3wY6pD5fGe-aTuEiOo";
+
+  it.each([
+    ["missing", undefined, /must be set in production/],
+    ["short", "0123456789abcdef", /at least 32 characters/],
+    ["the published example", "local-demo-secret-change-me-0123456789abcdef", /published example value/],
+    ["too regular", "a".repeat(40), /too regular/],
+  ])("is refused in production when %s", (_what, secret, message) => {
+    expect(() => parseServerEnv({ NODE_ENV: "production", BETTER_AUTH_SECRET: secret })).toThrow(message);
+    expect(() => parseServerEnv({ NODE_ENV: "production", BETTER_AUTH_SECRET: secret })).toThrow(/BETTER_AUTH_SECRET:/);
+  });
+
+  it("is taken as given in production when it is long and random", () => {
+    expect(parseServerEnv({ NODE_ENV: "production", BETTER_AUTH_SECRET: random }).BETTER_AUTH_SECRET).toBe(random);
+  });
+
+  it("falls back to a development secret outside production only", () => {
+    const dev = parseServerEnv({ NODE_ENV: "development" }).BETTER_AUTH_SECRET;
+    expect(dev.length).toBeGreaterThanOrEqual(32);
+    expect(() => parseServerEnv({ NODE_ENV: "production", BETTER_AUTH_SECRET: dev })).toThrow(/published example value/);
+  });
+});

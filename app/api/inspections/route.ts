@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { withRoute } from "@/lib/auth/api";
-import { vesselOfUnitInBody, readBody, mapRecordErrors } from "@/lib/inspections/http";
+import { vesselOfUnitInBody, readBody } from "@/lib/inspections/http";
 import { createInspection } from "@/lib/inspections/mutations";
 import { createInspectionSchema } from "@/lib/inspections/schemas";
 
@@ -9,10 +9,10 @@ export const dynamic = "force-dynamic";
 // POST /api/inspections – open a draft inspection of a unit (idempotent on clientToken)
 export const POST = withRoute<Record<string, string>>(
   "POST /api/inspections",
-  mapRecordErrors(async (req, { user }) => {
+  async (req, { user }) => {
     const input = await readBody(req, createInspectionSchema);
     const result = await createInspection(user, input);
     return NextResponse.json(result, { status: result.created ? 201 : 200 });
-  }),
+  },
   { vesselOf: vesselOfUnitInBody },
 );

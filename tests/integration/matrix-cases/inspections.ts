@@ -29,6 +29,11 @@ export const routeCases: Record<string, RouteCase> = {
     const d = await draftOn(await unitOf(w), engineerOf(w), { complete: false });
     return { request: request("PUT", `/api/inspections/${d.id}`, { revision: d.revision, draft: d.draft }), params: p(d.id) };
   },
+  "DELETE /api/inspections/[inspectionId]": async (w, caller) => {
+    // Only a draft's author may discard it: an allowed caller discards a draft of their own.
+    const d = await draftOn(await unitOf(w), uploaderFor(w, caller), { complete: false });
+    return { request: request("DELETE", `/api/inspections/${d.id}`), params: p(d.id) };
+  },
   "POST /api/inspections/[inspectionId]/submit": async (w) => {
     const d = await draftOn(await unitOf(w), engineerOf(w));
     return { request: request("POST", `/api/inspections/${d.id}/submit`, { revision: d.revision }), params: p(d.id) };

@@ -28,8 +28,8 @@ describe("normaliseClosedGap", () => {
 });
 
 describe("ringState against the new range and limit", () => {
-  // Groove clearance, top ring of a 720 mm bore: new 0.50–0.58 mm, maximum up to 1.00 mm
-  // [src] a maker's published clearance table (as in the test profile).
+  // Groove clearance of the test profile's top ring: new 0.50–0.58 mm, limit 1.00 mm. Invented
+  // test figures (see tests/unit/data/profile.ts), not any maker's; the states follow from them.
   test.each([
     [0.45, "below_new_range"],
     [0.5, "within_new_range"],

@@ -2,7 +2,7 @@ import fc from "fast-check";
 import { linearRegression, mean, rSquared, sampleCorrelation, sampleVariance } from "simple-statistics";
 import { describe, expect, test } from "vitest";
 import type { LinearFit, XY } from "@/lib/stats/regression";
-import { fitLine, inversePredict, leastSquaresSlope, predict } from "@/lib/stats/regression";
+import { fitLine, inversePredict, leastSquaresSlope, outlierCriticalValue, predict } from "@/lib/stats/regression";
 import { studentTQuantile } from "@/lib/stats/t-quantile";
 import { anscombe, anscombePublished } from "../data/anscombe";
 import { noInt1, noInt1Certified, norris, norrisCertified } from "../data/nist-strd";
@@ -85,7 +85,9 @@ describe("prediction interval ŷ ± t(α/2, n−2)·√(MSE(1 + 1/n + (x − x̄
     const b1 = xs.reduce((s, x, i) => s + (x - xBar) * (ys[i] - yBar), 0) / sxx;
     const b0 = yBar - b1 * xBar;
     const mse = ys.reduce((s, y, i) => s + (y - b0 - b1 * xs[i]) ** 2, 0) / (n - 2);
-    const t = 2.262157; // [src] NIST/SEMATECH t table, ν = 9, p = 0.975
+    // [from memory] t(0.975, 9) to six decimals; the NIST/SEMATECH table prints 2.262, which
+    // the t-quantile tests check. The interval ends below are computed from it here.
+    const t = 2.262157;
     const half = t * Math.sqrt(mse * (1 + 1 / n + (10 - xBar) ** 2 / sxx));
 
     const p = predict(fit, 10)!;
@@ -120,6 +122,7 @@ describe("prediction interval ŷ ± t(α/2, n−2)·√(MSE(1 + 1/n + (x − x̄
       interceptSd: null,
       slopeSd: s / Math.sqrt(sxx),
       residualSd: s,
+      rawResidualSd: s,
       mse: s * s,
       rSquared: 0.68,
       xMean,
@@ -128,6 +131,7 @@ describe("prediction interval ŷ ± t(α/2, n−2)·√(MSE(1 + 1/n + (x − x̄
       sumX2: sxx + n * xMean * xMean,
       residuals: [],
       standardizedResiduals: [],
+      deletedResiduals: [],
     };
     const p = predict(published, xH)!;
     // t(0.975, 47) from our own quantile function, not a table.
@@ -281,5 +285,98 @@ describe("property: agrees with simple-statistics on random data", () => {
         expect(Number.isFinite(result.fit.residualSd)).toBe(true);
       }),
     );
+  });
+});
+
+describe("externally studentized (deleted) residuals and the Bonferroni outlier test", () => {
+  // Invented wear histories of 5 to 8 gaugings past running-in, 0.035 mm/1000 h with a few
+  // hundredths of scatter, and one gross error of +0.30 mm (a digit slipped) at the third point.
+  const scatter = [0.01, -0.015, 0.02, -0.005, 0.0, -0.02, 0.015, -0.01];
+  const history = (n: number): XY[] =>
+    Array.from({ length: n }, (_, i) => {
+      const x = 4000 + 3000 * i;
+      return { x, y: 0.2 + (0.035 * x) / 1000 + scatter[i] + (i === 2 ? 0.3 : 0) };
+    });
+
+  /**
+   * The same statistic by its definition, not the closed form the library uses: refit without
+   * point i (simple-statistics' linearRegression), then divide the prediction error at xᵢ by its
+   * standard error from that reduced fit, s₍ᵢ₎·√(1 + 1/(n − 1) + (xᵢ − x̄₍ᵢ₎)²/Sxx₍ᵢ₎)
+   * (Kutner et al., Applied Linear Statistical Models, section 10.2 — from memory).
+   */
+  function leaveOneOut(points: XY[], i: number): number {
+    const rest = points.filter((_, j) => j !== i);
+    const { m, b } = linearRegression(rest.map((p) => [p.x, p.y]));
+    const sse = rest.reduce((s, p) => s + (p.y - (b + m * p.x)) ** 2, 0);
+    const s = Math.sqrt(sse / (rest.length - 2));
+    const xBar = mean(rest.map((p) => p.x));
+    const sxx = rest.reduce((acc, p) => acc + (p.x - xBar) ** 2, 0);
+    const d = points[i].y - (b + m * points[i].x);
+    return d / (s * Math.sqrt(1 + 1 / rest.length + (points[i].x - xBar) ** 2 / sxx));
+  }
+
+  test.each([5, 6, 7, 8])("%d points: every deleted residual agrees with a leave-one-out refit by simple-statistics", (n) => {
+    const points = history(n);
+    const fit = fitOf(points);
+    points.forEach((_, i) => expect(fit.deletedResiduals[i]!).toBeCloseTo(leaveOneOut(points, i), 8));
+  });
+
+  test.each([5, 6, 7, 8])("%d points with one gross error: only that point passes the Bonferroni bound", (n) => {
+    const fit = fitOf(history(n));
+    const critical = outlierCriticalValue(n)!;
+    const flagged = fit.deletedResiduals.map((t, i) => (Math.abs(t!) > critical ? i : -1)).filter((i) => i >= 0);
+    expect(flagged).toEqual([2]);
+    // The internally studentized residual cannot exceed √(n − 2) (Cook & Weisberg 1982, from
+    // memory; checked here), so a fixed 2.5 could never flag it.
+    fit.standardizedResiduals.forEach((r) => expect(Math.abs(r!)).toBeLessThanOrEqual(Math.sqrt(n - 2) + 1e-12));
+  });
+
+  test("the same histories without the gross error flag nothing", () => {
+    for (const n of [5, 6, 7, 8]) {
+      const clean = history(n).map((p, i) => (i === 2 ? { x: p.x, y: p.y - 0.3 } : p));
+      const fit = fitOf(clean);
+      const critical = outlierCriticalValue(n)!;
+      expect(fit.deletedResiduals.every((t) => Math.abs(t!) <= critical)).toBe(true);
+    }
+  });
+
+  test("the critical value t(1 − α/(2n), n − 3) against the printed t table", () => {
+    // [src] NIST/SEMATECH e-Handbook 1.3.6.7.2, upper critical values of the t distribution,
+    // printed to three decimals: ν = 2 at 0.995 is 9.925; ν = 7 at 0.995 is 3.499.
+    expect(outlierCriticalValue(5)!).toBeCloseTo(9.925, 3); // α = 0.05, n = 5: 1 − 0.05/10 = 0.995, ν = 2
+    expect(outlierCriticalValue(10, { alpha: 0.1 })!).toBeCloseTo(3.499, 3); // 1 − 0.1/20 = 0.995, ν = 7
+    expect(outlierCriticalValue(3)).toBeNull(); // nothing left once a point is deleted
+  });
+});
+
+describe("the residual standard deviation is floored at the gauge resolution", () => {
+  const line: XY[] = [
+    { x: 10_000, y: 0.55 },
+    { x: 20_000, y: 0.9 },
+    { x: 30_000, y: 1.25 },
+  ];
+
+  test("a perfect fit of three points still gives a prediction interval of the gauge's width", () => {
+    const bare = fitOf(line);
+    expect(bare.rawResidualSd).toBeCloseTo(0, 12);
+    const result = fitLine(line, { minResidualSd: 0.01 });
+    if (result.kind !== "fit") throw new Error("expected a fit");
+    const fit = result.fit;
+    expect(fit.residualSd).toBe(0.01);
+    expect(fit.rawResidualSd).toBeCloseTo(0, 12);
+    // [derived] by hand: x̄ = 20 000, Sxx = 2·10⁸; at x = 40 000 the half-width is
+    // t(0.975, 1)·0.01·√(1 + 1/3 + 4·10⁸/2·10⁸) with t = 12.706 [src] NIST/SEMATECH t table, ν = 1.
+    const p = predict(fit, 40_000)!;
+    expect(p.halfWidth).toBeCloseTo(12.706 * 0.01 * Math.sqrt(1 + 1 / 3 + 2), 3);
+    const inv = inversePredict(fit, 5.4)!;
+    expect(inv.kind).toBe("bounded");
+    if (inv.kind === "bounded") expect(inv.upper - inv.lower).toBeGreaterThan(1000);
+  });
+
+  test("a scattered fit keeps its own larger standard deviation", () => {
+    const fit = fitOf(anscombe.I);
+    const floored = fitLine(anscombe.I, { minResidualSd: 0.01 });
+    if (floored.kind !== "fit") throw new Error("expected a fit");
+    expect(floored.fit.residualSd).toBe(fit.residualSd);
   });
 });

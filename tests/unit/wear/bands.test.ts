@@ -43,7 +43,7 @@ describe("unitBand", () => {
     expect(b.reasons.join(" ")).not.toMatch(/abnormal/);
   });
 
-  test("wear past 80 % of the limit is watched", () => {
+  test("wear past 80 % of the limit is watched (80 %: common practice, no published source)", () => {
     const b = band(steadyAt(0.01, 4.3), { nextOverhaul: { hoursAhead: 8000 } });
     expect(b.band).toBe("watch");
     expect(b.reasons.join(" ")).toMatch(/past 80 % of its 5\.40 mm limit/);

@@ -10,7 +10,7 @@ describe("temperature correction to 20 °C", () => {
   });
 
   test("a 900 mm bore 10 K warmer than the gauge reads about 0.09 mm large [derived]", () => {
-    // Grey cast iron about 10 × 10⁻⁶ /K [src] engineering materials tables; 900 × 10e-6 × 10 = 0.09 mm.
+    // Grey cast iron about 10 × 10⁻⁶ /K [from memory] (handbook values for grey iron run about 9–12 × 10⁻⁶ /K); 900 × 10e-6 × 10 = 0.09 mm.
     const reading = 900.09;
     expect(correctTo20C(reading, 10e-6, 20, 10e-6, 30)).toBeCloseTo(900, 3);
   });

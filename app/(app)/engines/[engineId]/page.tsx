@@ -5,6 +5,7 @@ import { BandBadge, isBandKey } from "@/components/wear/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { LogHoursForm } from "@/components/hours/log-hours-form";
 import { can } from "@/lib/auth/permissions";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { getEngine } from "@/lib/fleet/queries";
 import { day, fixed, hours, monthYear } from "@/lib/format";
@@ -17,7 +18,7 @@ export const metadata: Metadata = { title: "Main engine" };
 export default async function EnginePage({ params }: { params: Promise<{ engineId: string }> }) {
   const user = await requirePermission("fleet.read");
   const { engineId } = await params;
-  const engine = await getEngine(user, Number(engineId));
+  const engine = await getEngine(user, await requireRecordInScope("engine", engineId));
   if (!engine) notFound();
   const limit = engine.profile.linerWearLimitMm;
   const log = await listRecentHours(engine.id, 40);

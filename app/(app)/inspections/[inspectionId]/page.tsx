@@ -8,6 +8,7 @@ import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
 import { WearTable, wearCellKey } from "@/components/wear/wear-table";
 import { can } from "@/lib/auth/permissions";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { day, fixed, hours, spread } from "@/lib/format";
 import { toWearProfile } from "@/lib/inspections/context";
@@ -16,7 +17,7 @@ import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
 import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
-import { analyseInspection } from "@/lib/wear/inspection";
+import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { intervalRate } from "@/lib/wear/liner";
 import { normaliseClosedGap } from "@/lib/rings/rings";
 import { OverLimitMark, CautionMark } from "@/components/inspections/marks";
@@ -46,26 +47,19 @@ function detailText(action: string, d: Record<string, unknown> | null): string |
 
 export default async function InspectionPage({ params }: { params: Promise<{ inspectionId: string }> }) {
   const user = await requirePermission("fleet.read");
-  const id = Number((await params).inspectionId);
-  const found = Number.isInteger(id) && id > 0 ? await getInspectionForUser(user, id) : null;
+  const id = await requireRecordInScope("inspection", (await params).inspectionId);
+  const found = await getInspectionForUser(user, id);
   if (!found) notFound();
   const { inspection: insp, context: ctx } = found;
   const [audit, summary] = await Promise.all([listInspectionAudit(id), getStoredUnitSummary(insp.unitId)]);
   const profile = ctx.profile;
   const h = insp.draft.header;
-  const analysis = analyseInspection(
-    toWearProfile(profile),
-    { id: String(id), date: h.inspectedOn, engineHours: h.engineHours, linerHours: h.linerHours, gaugeTempC: h.gaugeTempC, linerTempC: h.linerTempC, readings: insp.draft.readings },
-    ctx.asFitted ?? undefined,
-  );
+  const wearProfile = toWearProfile(profile);
+  const analysis = analyseGauging(wearProfile, toGauging(id, h, insp.draft.readings), ctx.asFitted);
   // The previous approved gauging of the same liner, so the chief sees what changed since.
   const prev = ctx.previous && ctx.previous.linerId === insp.linerId ? ctx.previous : null;
   const prevAnalysis = prev
-    ? analyseInspection(
-        toWearProfile(profile),
-        { id: String(prev.id), date: prev.inspectedOn, engineHours: prev.engineHours, linerHours: prev.linerHours, gaugeTempC: prev.gaugeTempC, linerTempC: prev.linerTempC, readings: prev.readings },
-        ctx.asFitted ?? undefined,
-      )
+    ? analyseGauging(wearProfile, toGauging(prev.id, prev, prev.readings), ctx.asFitted)
     : null;
   const since = prev && prevAnalysis
     ? {

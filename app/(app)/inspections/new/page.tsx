@@ -8,6 +8,7 @@ import { requirePermission } from "@/lib/auth/session";
 import { day, hours } from "@/lib/format";
 import { getNewInspectionContext, listOpenInspections, listUnitsToInspect } from "@/lib/inspections/queries";
 import { STATE_LABELS } from "@/lib/inspections/schemas";
+import { parseRecordId } from "@/lib/validation/ids";
 
 export const metadata: Metadata = { title: "New inspection" };
 
@@ -48,10 +49,10 @@ export default async function NewInspectionPage({ searchParams }: { searchParams
     );
   }
 
-  const unitId = Number(unit);
-  const ctx = Number.isInteger(unitId) && unitId > 0 ? await getNewInspectionContext(user, unitId, today) : null;
+  const unitId = parseRecordId(unit);
+  const ctx = unitId === null ? null : await getNewInspectionContext(user, unitId, today);
   if (!ctx) notFound();
-  const open = await listOpenInspections(unitId);
+  const open = await listOpenInspections(ctx.unit.id);
 
   return (
     <>

@@ -10,6 +10,7 @@ import { ProjectionText } from "@/components/wear/projection-text";
 import { WearTable } from "@/components/wear/wear-table";
 import { getUnitAnalysis } from "@/lib/analysis/queries";
 import { can } from "@/lib/auth/permissions";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { day, fixed, hours, spread } from "@/lib/format";
 
@@ -26,8 +27,7 @@ const STATE_LABELS: Record<string, string> = {
 export default async function UnitPage({ params }: { params: Promise<{ unitId: string }> }) {
   const user = await requirePermission("fleet.read");
   const { unitId } = await params;
-  const id = Number(unitId);
-  const data = Number.isInteger(id) && id > 0 ? await getUnitAnalysis(user, id) : null;
+  const data = await getUnitAnalysis(user, await requireRecordInScope("unit", unitId));
   if (!data) notFound();
   const { context: ctx, summary, profile } = data;
   const currentLiner = data.liners.find((l) => !l.removedOn) ?? null;

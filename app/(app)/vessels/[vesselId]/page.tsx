@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Card, PageHeader } from "@/components/ui/card";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { getVessel } from "@/lib/fleet/queries";
 import { fixed } from "@/lib/format";
@@ -11,7 +12,7 @@ export const metadata: Metadata = { title: "Vessel" };
 export default async function VesselPage({ params }: { params: Promise<{ vesselId: string }> }) {
   const user = await requirePermission("fleet.read");
   const { vesselId } = await params;
-  const vessel = await getVessel(user, Number(vesselId));
+  const vessel = await getVessel(user, await requireRecordInScope("vessel", vesselId));
   if (!vessel) notFound();
   return (
     <>

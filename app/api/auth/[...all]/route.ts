@@ -1,5 +1,6 @@
-import { toNextJsHandler } from "better-auth/next-js";
-import { auth } from "@/lib/auth/auth";
+import { handleAuthRequest } from "@/lib/auth/auth-route";
 
-// GET/POST /api/auth/* – better-auth (sign-in, sign-out, session, password reset)
-export const { GET, POST } = toNextJsHandler(auth);
+// GET/POST /api/auth/* – better-auth, only the endpoints the screens use (sign-in,
+// sign-out, session, password reset); everything else answers 404. See lib/auth/auth-route.ts.
+export const GET = handleAuthRequest;
+export const POST = handleAuthRequest;

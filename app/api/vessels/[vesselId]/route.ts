@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
-import { notFound, parseId, withRoute } from "@/lib/auth/api";
-import { getVessel } from "@/lib/fleet/queries";
+import { notFound, withRoute } from "@/lib/auth/api";
+import { getVessel, getVesselIdIfExists } from "@/lib/fleet/queries";
+import { parseRecordId } from "@/lib/validation/ids";
 
 export const dynamic = "force-dynamic";
 
@@ -12,5 +13,5 @@ export const GET = withRoute<{ vesselId: string }>(
     if (!vessel) throw notFound("Vessel not found.");
     return NextResponse.json({ vessel });
   },
-  { vesselOf: async (_req, params) => parseId(params.vesselId, "Vessel") },
+  { vesselOf: async (_req, params) => getVesselIdIfExists(parseRecordId(params.vesselId)) },
 );

@@ -5,14 +5,15 @@ import { ProfileForm } from "@/components/admin/profile-form";
 import { PageHeader } from "@/components/ui/card";
 import { getProfileForEdit } from "@/lib/admin/queries";
 import { requirePermission } from "@/lib/auth/session";
+import { parseRecordId } from "@/lib/validation/ids";
 
 export const metadata: Metadata = { title: "Engine profile" };
 
 export default async function EditProfilePage({ params }: { params: Promise<{ profileId: string }> }) {
   await requirePermission("admin.profiles");
   const { profileId } = await params;
-  const id = Number(profileId);
-  const profile = Number.isInteger(id) && id > 0 ? await getProfileForEdit(id) : null;
+  const id = parseRecordId(profileId);
+  const profile = id === null ? null : await getProfileForEdit(id);
   if (!profile) notFound();
   return (
     <>

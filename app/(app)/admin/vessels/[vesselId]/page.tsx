@@ -5,14 +5,15 @@ import { VesselForm } from "@/components/admin/vessel-form";
 import { PageHeader } from "@/components/ui/card";
 import { getVesselForEdit, listCompanies } from "@/lib/admin/queries";
 import { requirePermission } from "@/lib/auth/session";
+import { parseRecordId } from "@/lib/validation/ids";
 
 export const metadata: Metadata = { title: "Edit vessel" };
 
 export default async function EditVesselPage({ params }: { params: Promise<{ vesselId: string }> }) {
   await requirePermission("admin.fleet");
   const { vesselId } = await params;
-  const id = Number(vesselId);
-  const [vessel, companies] = await Promise.all([Number.isInteger(id) && id > 0 ? getVesselForEdit(id) : null, listCompanies()]);
+  const id = parseRecordId(vesselId);
+  const [vessel, companies] = await Promise.all([id === null ? null : getVesselForEdit(id), listCompanies()]);
   if (!vessel) notFound();
   return (
     <>

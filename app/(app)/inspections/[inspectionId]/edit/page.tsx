@@ -4,6 +4,7 @@ import { notFound, redirect } from "next/navigation";
 import { InspectionEditor } from "@/components/inspections/inspection-editor";
 import { PageHeader } from "@/components/ui/card";
 import { can } from "@/lib/auth/permissions";
+import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { day } from "@/lib/format";
 import { getInspectionForUser } from "@/lib/inspections/queries";
@@ -13,8 +14,8 @@ export const metadata: Metadata = { title: "Gauging sheet" };
 
 export default async function EditInspectionPage({ params }: { params: Promise<{ inspectionId: string }> }) {
   const user = await requirePermission("inspection.editDraft");
-  const id = Number((await params).inspectionId);
-  const found = Number.isInteger(id) && id > 0 ? await getInspectionForUser(user, id) : null;
+  const id = await requireRecordInScope("inspection", (await params).inspectionId);
+  const found = await getInspectionForUser(user, id);
   if (!found) notFound();
   const { inspection, context: ctx } = found;
   // Only drafts are edited; a submitted or approved record is read (and amended) on its own page.

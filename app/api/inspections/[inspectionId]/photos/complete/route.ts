@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { withRoute } from "@/lib/auth/api";
-import { inspectionIdOf, readBody, vesselOfInspection, mapRecordErrors } from "@/lib/inspections/http";
+import { inspectionIdOf, readBody, vesselOfInspection } from "@/lib/inspections/http";
 import { completePhotoSchema } from "@/lib/inspections/schemas";
 import { completePhoto } from "@/lib/photos/mutations";
 
@@ -9,9 +9,9 @@ export const dynamic = "force-dynamic";
 // POST /api/inspections/:inspectionId/photos/complete – check an uploaded photo (type by content, size, checksum, thumbnail) and attach it
 export const POST = withRoute<{ inspectionId: string }>(
   "POST /api/inspections/[inspectionId]/photos/complete",
-  mapRecordErrors(async (req, { user, params }) => {
+  async (req, { user, params }) => {
     const input = await readBody(req, completePhotoSchema);
     return NextResponse.json(await completePhoto(user, inspectionIdOf(params), input), { status: 201 });
-  }),
+  },
   { vesselOf: vesselOfInspection },
 );

@@ -1,6 +1,7 @@
 // Shown at once on navigation while the server reads the record, so a slow ship's link
-// never looks like a dead tap.
-export default function Loading() {
+// never looks like a dead tap. Each route segment's loading.tsx shows it; none sits above
+// a record's own check, so a missing record still answers HTTP 404 (see lib/auth/record-scope.ts).
+export function PageSkeleton() {
   return (
     <div role="status" aria-live="polite" className="animate-pulse py-8">
       <div className="h-4 w-40 rounded bg-ink-line/60" />

@@ -1,0 +1,8 @@
+import { requireRecordInScope } from "@/lib/auth/record-scope";
+
+// Decides "no such vessel on your vessels" before the page's loading skeleton starts the
+// response, so the answer is an HTTP 404 rather than a not-found page sent with 200.
+export default async function VesselLayout({ children, params }: { children: React.ReactNode; params: Promise<{ vesselId: string }> }) {
+  await requireRecordInScope("vessel", (await params).vesselId);
+  return children;
+}
