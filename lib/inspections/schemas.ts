@@ -2,6 +2,11 @@ import { z } from "zod";
 import { MAX_RUNNING_HOURS } from "@/lib/validation/bounds";
 import { recordDate, recordDateTime } from "@/lib/validation/dates";
 import { recordIdField } from "@/lib/validation/ids";
+import { GAP_MEASURED_IN, INSPECTION_STATES, PHOTO_MAX_BYTES, type InspectionState } from "./constants";
+
+// The plain values live in ./constants (no zod), so screens that only need a label or a limit
+// do not carry the validator in their first load; they are re-exported here for the server.
+export { emptyChecklist, GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS, INSPECTION_STATES, PHOTO_MAX_BYTES, PHOTO_TYPES, STATE_LABELS, type InspectionState } from "./constants";
 
 /*
  * One overhaul inspection as the browser and the server both see it. The entry form
@@ -13,8 +18,6 @@ import { recordIdField } from "@/lib/validation/ids";
 /** Most a request may carry: far more than any profile (about 12 stations × 2 axes, 6 rings). */
 export const LIMITS = { readings: 200, rings: 20, tallyItems: 40 } as const;
 
-/** Largest photo accepted (the file as stored, after upload). */
-export const PHOTO_MAX_BYTES = 15 * 1024 * 1024;
 
 const numberError = (label: string) => (issue: { input?: unknown }) =>
   issue.input === undefined || issue.input === null ? `Enter the ${label}.` : `The ${label} must be a number, not "${String(issue.input).slice(0, 20)}".`;
@@ -71,12 +74,6 @@ export const linerReadingSchema = z.object({
 });
 export type LinerReadingInput = z.infer<typeof linerReadingSchema>;
 
-export const GAP_MEASURED_IN = ["gauge_ring", "liner_unworn", "liner_worn"] as const;
-export const GAP_MEASURED_IN_LABELS: Record<(typeof GAP_MEASURED_IN)[number], string> = {
-  gauge_ring: "Gauge ring",
-  liner_unworn: "Unworn liner",
-  liner_worn: "Worn liner",
-};
 
 export const ringReadingSchema = z.object({
   position: z.number({ error: "Name the ring position." }).int().min(1).max(LIMITS.rings),
@@ -123,13 +120,6 @@ export const checklistSchema = z.object({
 });
 export type ChecklistInput = z.infer<typeof checklistSchema>;
 
-export const emptyChecklist = (): ChecklistInput => ({
-  tally: [],
-  closing: { signedName: null, signedAt: null },
-  rodNutPressureBar: null,
-  stuffingBox: { done: false, note: null },
-  cylinderLubrication: { done: false, note: null },
-});
 
 // ── whole documents and requests ─────────────────────────────────────────────────
 
@@ -213,7 +203,6 @@ export const amendInspectionSchema = z.object({
   clientToken: z.string().regex(/^[A-Za-z0-9_-]{16,64}$/, "The request token is malformed."),
 });
 
-export const PHOTO_TYPES = ["image/jpeg", "image/png", "image/webp", "image/heic", "image/heif"] as const;
 
 export const presignPhotoSchema = z.object({
   fileName: z.string().trim().min(1).max(255),
@@ -234,16 +223,6 @@ export const completePhotoSchema = z.object({
 
 // ── what the server sends back ───────────────────────────────────────────────────
 
-export const INSPECTION_STATES = ["draft", "submitted", "returned", "approved", "superseded"] as const;
-export type InspectionState = (typeof INSPECTION_STATES)[number];
-
-export const STATE_LABELS: Record<InspectionState, string> = {
-  draft: "Draft",
-  submitted: "Awaiting approval",
-  returned: "Returned for correction",
-  approved: "Approved",
-  superseded: "Superseded by amendment",
-};
 
 export type PersonStamp = { id: string; name: string } | null;
 

@@ -54,7 +54,7 @@ export async function buildRoleWorld(db: Knex, tag = "roles"): Promise<RoleWorld
   const profileId = await upsert(db, "engine_profiles", { name: `Test 600 bore (${tag})` }, {
     designation: "T-600 long stroke",
     bore_mm: 600,
-    stroke_mm: 2400,
+    stroke_mm: 2330, // invented: not a catalogued bore and stroke pair
     liner_wear_limit_mm: 3.6,
     ovality_limit_mm: 1.2,
     ring_count: 4,

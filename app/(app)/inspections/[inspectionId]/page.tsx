@@ -92,8 +92,11 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const approvalParties = { createdBy: insp.createdBy?.id ?? null, submittedBy: insp.submittedBy?.id ?? null };
   // A chief engineer who entered or submitted this record is told who approves it instead.
   const ownRecordNote = insp.state === "submitted" && can(user.role, "inspection.approve") ? approvalRefusal(user, approvalParties) : null;
+  const isAuthor = insp.createdBy?.id === user.id;
   const allowed = {
-    edit: can(user.role, "inspection.editDraft"),
+    // A returned record is corrected by the crew, not by the chief who returned it.
+    edit: can(user.role, "inspection.editDraft") && (insp.state !== "returned" || isAuthor || !can(user.role, "inspection.return")),
+    discard: insp.state === "draft" && isAuthor && can(user.role, "inspection.editDraft"),
     approve: can(user.role, "inspection.approve") && !approvalRefusal(user, approvalParties),
     return: can(user.role, "inspection.return"),
     amend: can(user.role, "inspection.amend"),
