@@ -124,3 +124,22 @@ test.describe("[SECURITY] not found is one answer", () => {
     expect(text.status()).toBe(415);
   });
 });
+
+test.describe("[SECURITY] the not-found page fits every screen", () => {
+  for (const [w, h] of [
+    [390, 844],
+    [820, 1180],
+    [1440, 900],
+  ] as const) {
+    test(`at ${w}×${h}`, async ({ page }) => {
+      await page.setViewportSize({ width: w, height: h });
+      await signIn(page, DEMO.engineer);
+      const res = await page.goto("/engines/abc");
+      expect(res!.status()).toBe(404);
+      await expect(page.getByRole("heading", { name: "Nothing here" })).toBeVisible();
+      const fits = await page.evaluate(() => document.documentElement.scrollWidth <= document.documentElement.clientWidth);
+      expect(fits).toBe(true);
+      await shot(page, `security-not-found-${w}`);
+    });
+  }
+});
