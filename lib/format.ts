@@ -1,5 +1,17 @@
-import { format, parseISO } from "date-fns";
 import { DEFAULT_DECIMALS, MM_PER_INCH, type LengthUnit } from "./units/length";
+
+// Dates are formatted here by hand (a fixed English month list): date-fns would ride in the
+// first load of every screen that shows a day.
+const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+
+/** "2027-03-04…" → [2027, 3, 4], or null when it is no calendar day. */
+function ymd(iso: string): [number, number, number] | null {
+  const m = /^(\d{4})-(\d{2})-(\d{2})/.exec(iso);
+  if (!m) return null;
+  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
+  const t = new Date(Date.UTC(y, mo - 1, d));
+  return t.getUTCFullYear() === y && t.getUTCMonth() === mo - 1 && t.getUTCDate() === d ? [y, mo, d] : null;
+}
 
 /*
  * The one formatting module: every figure a screen, a warning or a reason prints is rounded
@@ -107,13 +119,13 @@ export function trendWords(value: number): string {
 /** A calendar day as "4 Mar 2027". */
 export function day(iso: string | null | undefined): string {
   if (!iso) return NO_VALUE;
-  const d = parseISO(iso.slice(0, 10));
-  return Number.isNaN(d.getTime()) ? NO_VALUE : format(d, "d MMM yyyy");
+  const d = ymd(iso);
+  return d ? `${d[2]} ${MONTHS[d[1] - 1]} ${d[0]}` : NO_VALUE;
 }
 
 /** A month as "Mar 2027". */
 export function monthYear(iso: string | null | undefined): string {
   if (!iso) return NO_VALUE;
-  const d = parseISO(iso.slice(0, 10));
-  return Number.isNaN(d.getTime()) ? NO_VALUE : format(d, "MMM yyyy");
+  const d = ymd(iso);
+  return d ? `${MONTHS[d[1] - 1]} ${d[0]}` : NO_VALUE;
 }

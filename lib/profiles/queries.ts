@@ -32,6 +32,7 @@ export async function loadProfiles(db: Knex | Knex.Transaction, ids?: number[]):
     "axis_b_label",
     "overhaul_interval_hours",
     "rod_nut_pressure_bar",
+    "rod_nut_tolerance_pct",
   );
   if (ids) pq.whereIn("id", ids);
   const profiles = await pq;
@@ -60,6 +61,7 @@ export async function loadProfiles(db: Knex | Knex.Transaction, ids?: number[]):
       minPointsForProjection: Number(p.min_points_for_projection),
       overhaulIntervalHours: Number(p.overhaul_interval_hours),
       rodNutPressureBar: p.rod_nut_pressure_bar === null ? null : Number(p.rod_nut_pressure_bar),
+      rodNutTolerancePct: p.rod_nut_tolerance_pct == null ? null : Number(p.rod_nut_tolerance_pct),
       axes: [
         { key: p.axis_a_key, label: p.axis_a_label },
         { key: p.axis_b_key, label: p.axis_b_label },

@@ -15,7 +15,8 @@ import { toWearProfile } from "@/lib/inspections/context";
 import { listInspectionAudit } from "@/lib/inspections/audit-queries";
 import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
-import { correctionFactor, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
+import { approvalFigures, approvalRefusal } from "@/lib/inspections/approval";
+import { correctionFactor, openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { intervalRate } from "@/lib/wear/liner";
@@ -86,9 +87,27 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
     const live = ringLive(spec, referred ?? r?.closedGapMm ?? null, r?.grooveClearanceMm ?? null);
     return { spec, r, referred, live };
   });
+  const approval =
+    insp.state === "submitted"
+      ? approvalFigures({
+          wearLimitMm: profile.linerWearLimitMm,
+          inspectedOn: h.inspectedOn,
+          linerHours: h.linerHours,
+          maxWear: analysis.maxWear ? { wearMm: analysis.maxWear.wearMm, at: stationLabel(analysis.maxWear.stationKey) } : null,
+          previous: prev && since ? { maxWearMm: since.maxWearMm, linerHours: prev.linerHours, inspectedOn: prev.inspectedOn } : null,
+          hoursLog: ctx.hoursLog,
+          cautions: openCautions(ctx, insp.draft),
+        })
+      : undefined;
+  const approvalParties = { createdBy: insp.createdBy?.id ?? null, submittedBy: insp.submittedBy?.id ?? null };
+  // A chief engineer who entered or submitted this record is told who approves it instead.
+  const ownRecordNote = insp.state === "submitted" && can(user.role, "inspection.approve") ? approvalRefusal(user, approvalParties) : null;
+  const isAuthor = insp.createdBy?.id === user.id;
   const allowed = {
-    edit: can(user.role, "inspection.editDraft"),
-    approve: can(user.role, "inspection.approve"),
+    // A returned record is corrected by the crew, not by the chief who returned it.
+    edit: can(user.role, "inspection.editDraft") && (insp.state !== "returned" || isAuthor || !can(user.role, "inspection.return")),
+    discard: insp.state === "draft" && isAuthor && can(user.role, "inspection.editDraft"),
+    approve: can(user.role, "inspection.approve") && !approvalRefusal(user, approvalParties),
     return: can(user.role, "inspection.return"),
     amend: can(user.role, "inspection.amend"),
   };
@@ -129,7 +148,8 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <strong>Returned for correction:</strong> {insp.returnComment}
           </p>
         ) : null}
-        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} />
+        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} approval={approval} />
+        {ownRecordNote ? <p className="text-sm text-ink-soft">{ownRecordNote}</p> : null}
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
 
@@ -240,7 +260,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                 <>
                   {r?.closedGapMm != null ? <span className={ringTone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
                   {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
-                  {r ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
+                  {r?.gapMeasuredIn ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
                   {referred !== null ? <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span> : null}
                 </>
               ),
@@ -251,7 +271,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
               hideBelow: "md",
               cell: ({ r, referred }) => (
                 <>
-                  {r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
+                  {r?.gapMeasuredIn ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
                   {referred !== null ? (
                     <span className="num block text-xs text-ink-faint">
                       at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring
