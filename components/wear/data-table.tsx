@@ -31,6 +31,7 @@ export function DataTable<T>({
   minWidthClass,
   caption,
   testId,
+  dense,
 }: {
   columns: Column<T>[];
   rows: readonly T[];
@@ -39,7 +40,10 @@ export function DataTable<T>({
   minWidthClass?: string;
   caption?: ReactNode;
   testId?: string;
+  /** Narrower side padding on a phone, for tables that must fit 390 px. */
+  dense?: boolean;
 }) {
+  const pad = dense ? "px-2 py-2 sm:px-3" : "px-3 py-2";
   return (
     <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised" data-testid={testId}>
       <table className={cn("w-full text-sm", minWidthClass)}>
@@ -47,7 +51,7 @@ export function DataTable<T>({
         <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
           <tr>
             {columns.map((c) => (
-              <th key={c.key} scope="col" className={cn("px-3 py-2", c.align === "right" && "text-right", c.hideBelow && HIDE[c.hideBelow], c.className)}>
+              <th key={c.key} scope="col" className={cn(pad, c.align === "right" && "text-right", c.hideBelow && HIDE[c.hideBelow], c.className)}>
                 {c.header}
               </th>
             ))}
@@ -57,7 +61,7 @@ export function DataTable<T>({
           {rows.map((row) => (
             <tr key={rowKey(row)}>
               {columns.map((c) => {
-                const cls = cn("px-3 py-2 align-top", c.align === "right" ? "text-right" : "text-left", c.numeric && "num", c.hideBelow && HIDE[c.hideBelow], c.className);
+                const cls = cn(pad, "align-top", c.align === "right" ? "text-right" : "text-left", c.numeric && "num", c.hideBelow && HIDE[c.hideBelow], c.className);
                 return c.rowHeader ? (
                   <th key={c.key} scope="row" className={cn(cls, "font-medium")}>
                     {c.cell(row)}

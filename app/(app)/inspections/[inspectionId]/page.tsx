@@ -20,7 +20,8 @@ import { correctionFactor, openCautions, RING_STATE_TEXT, ringLive, rodNutDeviat
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { intervalRate } from "@/lib/wear/liner";
-import { gapLinerIncrease, normaliseClosedGap } from "@/lib/rings/rings";
+import { gapLinerIncrease, normaliseClosedGap, type RingState } from "@/lib/rings/rings";
+import { DataTable } from "@/components/wear/data-table";
 import { OverLimitMark, CautionMark } from "@/components/inspections/marks";
 
 export const metadata: Metadata = { title: "Inspection" };
@@ -45,6 +46,8 @@ function detailText(action: string, d: Record<string, unknown> | null): string |
   if (action.startsWith("inspection.photo") && d.caption) return String(d.caption);
   return null;
 }
+
+const ringTone = (s: RingState | null) => (s === "at_or_over_limit" ? "font-semibold text-limit" : s === "below_new_range" ? "text-caution" : "");
 
 export default async function InspectionPage({ params }: { params: Promise<{ inspectionId: string }> }) {
   const user = await requirePermission("fleet.read");
@@ -77,6 +80,13 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
   const c = insp.draft.checklist;
   const dev = rodNutDeviation(profile, c.rodNutPressureBar);
+  const ringRows = profile.rings.map((spec) => {
+    const r = insp.draft.rings.find((x) => x.position === spec.position);
+    const increase = r?.gapMeasuredIn === "liner_worn" ? gapLinerIncrease(profile.boreMm, r.gapLinerDiameterMm, correctionFactor(profile, h.gaugeTempC, h.linerTempC)) : null;
+    const referred = r?.closedGapMm != null && increase?.kind === "ok" ? normaliseClosedGap(r.closedGapMm, "liner_worn", increase.increaseMm).gapMm : null;
+    const live = ringLive(spec, referred ?? r?.closedGapMm ?? null, r?.grooveClearanceMm ?? null);
+    return { spec, r, referred, live };
+  });
   const approval =
     insp.state === "submitted"
       ? approvalFigures({
@@ -218,64 +228,74 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
 
       <section className="mb-6">
         <h2 className="mb-2 text-lg font-semibold">Piston rings</h2>
-        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-          {/* On a phone the ring's other columns fold under its gap and its name. */}
-          <table className="w-full text-sm md:min-w-[720px]">
-            <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
-              <tr>
-                <th className="px-2 py-2 sm:px-3" scope="col">Ring</th>
-                <th className="px-2 py-2 text-right sm:px-3" scope="col">Closed gap</th>
-                <th className="hidden px-3 py-2 md:table-cell" scope="col">Measured in</th>
-                <th className="px-2 py-2 text-right sm:px-3" scope="col">Groove clearance</th>
-                <th className="hidden px-3 py-2 md:table-cell" scope="col">Renewed</th>
-                <th className="hidden px-3 py-2 md:table-cell" scope="col">Condition</th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-ink-line/70">
-              {profile.rings.map((spec) => {
-                const r = insp.draft.rings.find((x) => x.position === spec.position);
-                const increase = r?.gapMeasuredIn === "liner_worn" ? gapLinerIncrease(profile.boreMm, r.gapLinerDiameterMm, correctionFactor(profile, h.gaugeTempC, h.linerTempC)) : null;
-                const referred =
-                  r?.closedGapMm != null && increase?.kind === "ok" ? normaliseClosedGap(r.closedGapMm, "liner_worn", increase.increaseMm).gapMm : null;
-                const live = ringLive(spec, referred ?? r?.closedGapMm ?? null, r?.grooveClearanceMm ?? null);
-                const tone = (s: typeof live.gap) => (s === "at_or_over_limit" ? "font-semibold text-limit" : s === "below_new_range" ? "text-caution" : "");
-                return (
-                  <tr key={spec.position}>
-                    <th scope="row" className="px-2 py-2 text-left align-top font-medium sm:px-3">
-                      <span className="whitespace-nowrap">{spec.label}</span>
-                      <span className="block text-xs font-normal text-ink-soft md:hidden">
-                        {r?.renewed ? "renewed" : "not renewed"}
-                        {r?.condition ? ` · ${r.condition}` : ""}
-                      </span>
-                    </th>
-                    <td className="num px-2 py-2 text-right align-top sm:px-3">
-                      {r?.closedGapMm != null ? <span className={tone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
-                      {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
-                      {r?.gapMeasuredIn ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
-                      {referred !== null ? (
-                        <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span>
-                      ) : null}
-                    </td>
-                    <td className="hidden px-3 py-2 align-top md:table-cell">
-                      {r?.gapMeasuredIn ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
-                      {referred !== null ? (
-                        <span className="num block text-xs text-ink-faint">
-                          at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring
-                        </span>
-                      ) : null}
-                    </td>
-                    <td className="num px-2 py-2 text-right align-top sm:px-3">
-                      {r?.grooveClearanceMm != null ? <span className={tone(live.groove)}>{live.groove === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.grooveClearanceMm)} mm</span> : "–"}
-                      {live.groove ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.groove]} (limit {fixed(spec.grooveLimitMm)} mm)</span> : null}
-                    </td>
-                    <td className="hidden px-3 py-2 align-top md:table-cell">{r?.renewed ? "Yes" : "No"}</td>
-                    <td className="hidden px-3 py-2 align-top md:table-cell">{r?.condition ?? <span className="text-ink-faint">–</span>}</td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
+        {/* On a phone the ring's other columns fold under its gap and its name. */}
+        <DataTable
+          testId="inspection-rings"
+          caption="Piston rings"
+          dense
+          minWidthClass="md:min-w-[720px]"
+          rows={ringRows}
+          rowKey={(row) => row.spec.position}
+          columns={[
+            {
+              key: "ring",
+              header: "Ring",
+              rowHeader: true,
+              cell: ({ spec, r }) => (
+                <>
+                  <span className="whitespace-nowrap">{spec.label}</span>
+                  <span className="block text-xs font-normal text-ink-soft md:hidden">
+                    {r?.renewed ? "renewed" : "not renewed"}
+                    {r?.condition ? ` · ${r.condition}` : ""}
+                  </span>
+                </>
+              ),
+            },
+            {
+              key: "gap",
+              header: "Closed gap",
+              align: "right",
+              numeric: true,
+              cell: ({ spec, r, referred, live }) => (
+                <>
+                  {r?.closedGapMm != null ? <span className={ringTone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
+                  {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
+                  {r?.gapMeasuredIn ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
+                  {referred !== null ? <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span> : null}
+                </>
+              ),
+            },
+            {
+              key: "measuredIn",
+              header: "Measured in",
+              hideBelow: "md",
+              cell: ({ r, referred }) => (
+                <>
+                  {r?.gapMeasuredIn ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
+                  {referred !== null ? (
+                    <span className="num block text-xs text-ink-faint">
+                      at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring
+                    </span>
+                  ) : null}
+                </>
+              ),
+            },
+            {
+              key: "groove",
+              header: "Groove clearance",
+              align: "right",
+              numeric: true,
+              cell: ({ spec, r, live }) => (
+                <>
+                  {r?.grooveClearanceMm != null ? <span className={ringTone(live.groove)}>{live.groove === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.grooveClearanceMm)} mm</span> : "–"}
+                  {live.groove ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.groove]} (limit {fixed(spec.grooveLimitMm)} mm)</span> : null}
+                </>
+              ),
+            },
+            { key: "renewed", header: "Renewed", hideBelow: "md", cell: ({ r }) => (r?.renewed ? "Yes" : "No") },
+            { key: "condition", header: "Condition", hideBelow: "md", cell: ({ r }) => r?.condition ?? <span className="text-ink-faint">–</span> },
+          ]}
+        />
       </section>
 
       <section className="mb-6 grid gap-4 lg:grid-cols-2">
