@@ -76,7 +76,7 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
       // The directions entered the other way round: named, and put right with one tap.
       await fillColumn(page, 0, stations.map((s) => up(s.key, axes[1].key)));
       await fillColumn(page, 1, stations.map((s) => up(s.key, axes[0].key)));
-      await expect(page.getByText(/fit the previous gauging far better with fore–aft and athwartships exchanged/)).toBeVisible();
+      await expect(page.getByTestId("sheet-findings").getByText(/fit the previous gauging far better with fore–aft and athwartships exchanged/)).toBeVisible();
       await shot(page, "sheet-swapped-tablet");
       await page.getByRole("button", { name: "Swap fore–aft and athwartships" }).click();
       await expect(page.getByText(/exchanged/)).toHaveCount(0);
