@@ -44,7 +44,7 @@ async function startInspection(page: Page, cylinder: string, crew: string, step:
 
 test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul", () => {
   test("an engineer records a full inspection through an offline spell; the chief approves it @tablet", async ({ page, browser, context }, info) => {
-    test.setTimeout(180_000);
+    test.setTimeout(300_000);
     const project = info.project.name;
     await signIn(page, DEMO.engineer);
 
