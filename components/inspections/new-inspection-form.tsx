@@ -6,7 +6,7 @@ import { useEffect, useRef, useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
-import { FieldError, Input, Label } from "@/components/ui/field";
+import { enterMovesToNextField, FieldError, Input, Label } from "@/components/ui/field";
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import type { InspectionContext } from "@/lib/inspections/context";
 import { parseDecimal, randomToken } from "@/lib/inspections/form";
@@ -102,9 +102,10 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
     setServerError(null);
     setPending(true);
     try {
-      const res = await apiJson<{ id: number }>("/api/inspections", { method: "POST", body: { ...input, unitId: ctx.unit.id, clientToken: token.current } });
+      const res = await apiJson<{ id: number; existing?: boolean }>("/api/inspections", { method: "POST", body: { ...input, unitId: ctx.unit.id, clientToken: token.current } });
       localStorage.removeItem(pendingKey(ctx.unit.id));
-      router.push(`/inspections/${res.id}/edit`);
+      // The unit already had an open draft (another device, a crew mate): that one opens, not a second.
+      router.push(res.existing ? `/inspections/${res.id}/edit?opened=existing` : `/inspections/${res.id}/edit`);
     } catch (err) {
       setPending(false);
       if (err instanceof NetworkError) {
@@ -135,7 +136,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
   const err = formState.errors;
   const num = { inputMode: "decimal" as const, autoComplete: "off", className: "mt-1 num min-h-12 pr-12 text-right text-lg" };
   return (
-    <form onSubmit={handleSubmit(create)} noValidate className="space-y-6">
+    <form onSubmit={handleSubmit(create)} onKeyDown={enterMovesToNextField} noValidate className="space-y-6">
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-lg font-semibold">Date and running hours</legend>
         <div>

@@ -3,7 +3,7 @@
 import type { ContextProfile } from "@/lib/inspections/context";
 import { emptyRing, expectedIn, lengthText, parseDecimal, toMm, type RingEntry } from "@/lib/inspections/form";
 import { RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
-import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/schemas";
+import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/constants";
 import { normaliseClosedGap, type RingState } from "@/lib/rings/rings";
 import { checkRingValue, linerDiameterBounds, type Finding } from "@/lib/wear/plausibility";
 import { formatFixed, type LengthUnit } from "@/lib/units/length";

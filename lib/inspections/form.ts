@@ -3,7 +3,7 @@ import { parseNumberInput } from "@/lib/units/parse-number";
 import type { ContextProfile } from "./context";
 import { cellKey } from "./context";
 import type { InspectionDraft, InspectionHeader, RingReadingInput } from "./schemas";
-import { emptyChecklist } from "./schemas";
+import { emptyChecklist } from "./constants";
 
 /*
  * The entry form keeps what was typed as text, exactly, so a half-typed or mistyped

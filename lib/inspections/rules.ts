@@ -1,5 +1,5 @@
 import { inspectionAnalysisInput, toGauging } from "@/lib/analysis/input";
-import { normaliseClosedGap, ringState, type RingState } from "@/lib/rings/rings";
+import { gapLinerIncrease, normaliseClosedGap, ringState, type RingState } from "@/lib/rings/rings";
 import { formatRunningHours, parseIsoDate, runningHoursPerDay, type RunningHoursEntry } from "@/lib/wear/calendar";
 import { temperatureCorrection } from "@/lib/wear/correction";
 import { checkGauging, checkLinerDiameter, checkRingValue, linerDiameterBounds, type Finding } from "@/lib/wear/plausibility";
@@ -111,6 +111,11 @@ export function checkHours(ctx: InspectionContext, header: Pick<InspectionHeader
     });
   }
   if (Number.isFinite(linerHours) && linerHours < 0) errors.push({ field: "header.linerHours", message: "Liner hours cannot be negative." });
+  // A liner cannot be gauged before it was fitted (the engine's own history starts later still).
+  const fittedOn = String(ctx.liner.installedOn ?? "").slice(0, 10);
+  if (fittedOn && header.inspectedOn && header.inspectedOn < fittedOn) {
+    errors.push({ field: "header.inspectedOn", message: `The inspection date ${header.inspectedOn} is before liner ${ctx.liner.serial} was fitted on ${fittedOn}: check the date.` });
+  }
   return { errors, warnings, expected, derivedLinerHours: derived };
 }
 
@@ -362,6 +367,10 @@ export function submissionProblems(ctx: InspectionContext, draft: InspectionDraf
     else if (r.gapMeasuredIn == null) out.push({ field: `rings.${spec.position}.gapMeasuredIn`, message: `${spec.label}: say where the closed gap was measured (gauge ring, unworn or worn liner).` });
     if (!r || r.grooveClearanceMm == null) out.push({ field: `rings.${spec.position}.grooveClearanceMm`, message: `${spec.label}: enter the groove clearance.` });
     for (const e of ringFindings(ctx.profile, spec, r)) out.push({ field: `rings.${spec.position}`, message: `${spec.label}: ${e.message}` });
+    if (r && r.gapMeasuredIn === "liner_worn") {
+      const inc = gapLinerIncrease(ctx.profile.boreMm, r.gapLinerDiameterMm, correctionFactor(ctx.profile, draft.header.gaugeTempC, draft.header.linerTempC));
+      if (inc.kind === "invalid") out.push({ field: `rings.${spec.position}.gapLinerDiameterMm`, message: `${spec.label}: ${inc.message}` });
+    }
   }
   out.push(...checklistProblems(draft.checklist, ctx.profile));
   return out;
@@ -391,9 +400,11 @@ export function openCautions(ctx: InspectionContext, draft: InspectionDraft): Pr
     const r = draft.rings.find((x) => x.position === spec.position);
     if (!r) continue;
     // A gap read in a worn part of the liner is judged as if in a gauge ring of nominal bore.
+    // The liner diameter there is referred to 20 °C like the bore readings.
+    const inc = gapLinerIncrease(ctx.profile.boreMm, r.gapLinerDiameterMm, correctionFactor(ctx.profile, draft.header.gaugeTempC, draft.header.linerTempC));
     const referred =
-      r.closedGapMm != null && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameterMm != null
-        ? normaliseClosedGap(r.closedGapMm, "liner_worn", r.gapLinerDiameterMm - ctx.profile.boreMm).gapMm
+      r.closedGapMm != null && r.gapMeasuredIn === "liner_worn" && inc.kind === "ok"
+        ? normaliseClosedGap(r.closedGapMm, "liner_worn", inc.increaseMm).gapMm
         : r.closedGapMm;
     const live = ringLive(spec, referred, r.grooveClearanceMm);
     for (const [what, state] of [

@@ -1,4 +1,4 @@
-import { formatMm as mm } from "../units/length";
+import { mm } from "../format";
 import { isUnwornBand } from "./profile";
 import type { WearProfile } from "./types";
 import { WEAR_RULES } from "./types";

@@ -15,12 +15,12 @@ import { toWearProfile } from "@/lib/inspections/context";
 import { listInspectionAudit } from "@/lib/inspections/audit-queries";
 import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
-import { approvalFigures } from "@/lib/inspections/approval";
-import { openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
+import { approvalFigures, approvalRefusal } from "@/lib/inspections/approval";
+import { correctionFactor, openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { intervalRate } from "@/lib/wear/liner";
-import { normaliseClosedGap } from "@/lib/rings/rings";
+import { gapLinerIncrease, normaliseClosedGap } from "@/lib/rings/rings";
 import { OverLimitMark, CautionMark } from "@/components/inspections/marks";
 
 export const metadata: Metadata = { title: "Inspection" };
@@ -89,9 +89,15 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
           cautions: openCautions(ctx, insp.draft),
         })
       : undefined;
+  const approvalParties = { createdBy: insp.createdBy?.id ?? null, submittedBy: insp.submittedBy?.id ?? null };
+  // A chief engineer who entered or submitted this record is told who approves it instead.
+  const ownRecordNote = insp.state === "submitted" && can(user.role, "inspection.approve") ? approvalRefusal(user, approvalParties) : null;
+  const isAuthor = insp.createdBy?.id === user.id;
   const allowed = {
-    edit: can(user.role, "inspection.editDraft"),
-    approve: can(user.role, "inspection.approve"),
+    // A returned record is corrected by the crew, not by the chief who returned it.
+    edit: can(user.role, "inspection.editDraft") && (insp.state !== "returned" || isAuthor || !can(user.role, "inspection.return")),
+    discard: insp.state === "draft" && isAuthor && can(user.role, "inspection.editDraft"),
+    approve: can(user.role, "inspection.approve") && !approvalRefusal(user, approvalParties),
     return: can(user.role, "inspection.return"),
     amend: can(user.role, "inspection.amend"),
   };
@@ -133,6 +139,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
           </p>
         ) : null}
         <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} approval={approval} />
+        {ownRecordNote ? <p className="text-sm text-ink-soft">{ownRecordNote}</p> : null}
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
 
@@ -227,10 +234,9 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <tbody className="divide-y divide-ink-line/70">
               {profile.rings.map((spec) => {
                 const r = insp.draft.rings.find((x) => x.position === spec.position);
+                const increase = r?.gapMeasuredIn === "liner_worn" ? gapLinerIncrease(profile.boreMm, r.gapLinerDiameterMm, correctionFactor(profile, h.gaugeTempC, h.linerTempC)) : null;
                 const referred =
-                  r?.closedGapMm != null && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameterMm != null
-                    ? normaliseClosedGap(r.closedGapMm, "liner_worn", r.gapLinerDiameterMm - profile.boreMm).gapMm
-                    : null;
+                  r?.closedGapMm != null && increase?.kind === "ok" ? normaliseClosedGap(r.closedGapMm, "liner_worn", increase.increaseMm).gapMm : null;
                 const live = ringLive(spec, referred ?? r?.closedGapMm ?? null, r?.grooveClearanceMm ?? null);
                 const tone = (s: typeof live.gap) => (s === "at_or_over_limit" ? "font-semibold text-limit" : s === "below_new_range" ? "text-caution" : "");
                 return (
