@@ -194,8 +194,8 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
       await page.locator("#h-gauge").fill("20");
 
       // An impossible diameter: an error, never a confirm button.
-      await page.locator("#cell-0-0").fill("6000.4");
-      await expect(page.getByTestId("cell-error")).toContainText("10 times");
+      await page.locator("#cell-0-0").fill("60.04");
+      await expect(page.getByTestId("cell-error")).toContainText("a tenth of the 600.00 mm bore");
       await expect(page.locator("#cell-0-0-help").getByRole("button", { name: /confirm/ })).toHaveCount(0);
       await noSidewaysScroll(page);
       await shot(page, "sheet-impossible-phone");
@@ -203,7 +203,7 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
       // The draft keeps what was typed; the server would not take it into a record.
       const res = await page.request.post(`/api/inspections/${inspectionId}/submit`, { headers: { origin: new URL(page.url()).origin }, data: {} });
       expect(res.status()).toBe(400);
-      expect(JSON.stringify(await res.json())).toMatch(/10 times the 600\.00 mm bore/);
+      expect(JSON.stringify(await res.json())).toMatch(/about a tenth of the 600\.00 mm bore/);
     });
   });
 });
