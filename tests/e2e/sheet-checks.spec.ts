@@ -14,7 +14,7 @@ import { DEMO, shot, signIn } from "./helpers";
 type Analysis = {
   context: { engineId: number };
   profile: { boreMm: number; stations: { key: string }[]; axes: { key: string; label: string }[]; rings: { position: number; gapNewMinMm: number; gapNewMaxMm: number; grooveNewMinMm: number; grooveNewMaxMm: number }[] };
-  series: { cells: { stationKey: string; axisKey: string; correctedMm: number }[] }[];
+  latest: { cells: { stationKey: string; axisKey: string; correctedMm: number }[] } | null;
 };
 
 const status = (page: Page) => page.locator("[data-save-status]");
@@ -34,7 +34,7 @@ async function openSheet(page: Page, cylinder: RegExp) {
   const analysis = (await (await page.request.get(`/api/units/${unitId}/analysis`)).json()) as Analysis;
   const engine = await (await page.request.get(`/api/engines/${analysis.context.engineId}/analysis`)).json();
   const hours = Math.round(engine.latestHours.engineHours);
-  const last = analysis.series.at(-1)?.cells ?? [];
+  const last = analysis.latest?.cells ?? [];
   const prev = (stationKey: string, axisKey: string) => last.find((c) => c.stationKey === stationKey && c.axisKey === axisKey)?.correctedMm ?? analysis.profile.boreMm + 0.2;
   // "46,600" engine hours: a counter is never a fraction of its last reading.
   await page.getByLabel("Engine running hours (counter)").fill(grouped(hours));
