@@ -254,6 +254,14 @@ export function ProfileForm({ initial, stationsWithReadings = [], engineCount = 
           <FormField id="rodNutPressureBar" label={<>Rod nut tightening pressure<Unit>bar</Unit></>} hint="optional; follow the maker's procedure" error={errorAt(e, "rodNutPressureBar")}>
             <Input id="rodNutPressureBar" inputMode="decimal" className={num} {...register("rodNutPressureBar")} />
           </FormField>
+          <FormField
+            id="rodNutTolerancePct"
+            label={<>Rod nut pressure tolerance<Unit>± %</Unit></>}
+            hint="a record further off is refused; empty means ±10 %"
+            error={errorAt(e, "rodNutTolerancePct")}
+          >
+            <Input id="rodNutTolerancePct" inputMode="decimal" className={num} {...register("rodNutTolerancePct")} />
+          </FormField>
         </div>
         <FormField id="notes" label="Notes" error={errorAt(e, "notes")} className="mt-4">
           <Textarea id="notes" rows={3} {...register("notes")} />

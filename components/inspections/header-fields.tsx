@@ -99,11 +99,11 @@ export function HeaderFields({
         ) : null}
         <Field id="h-gauge" label="Micrometer temperature" unit="°C">
           <input id="h-gauge" inputMode="decimal" autoComplete="off" className={cn(fieldCls, "num text-right text-lg")} value={header.gaugeTempC} onChange={(e) => setHeader({ gaugeTempC: e.target.value })} />
-          <ParsedEcho text={header.gaugeTempC} expected={20} unit="°C" decimals={1} onChoose={(gaugeTempC) => setHeader({ gaugeTempC })} />
+          <ParsedEcho text={header.gaugeTempC} expected={20} unit="°C" decimals={2} onChoose={(gaugeTempC) => setHeader({ gaugeTempC })} />
         </Field>
         <Field id="h-linert" label="Liner temperature" unit="°C">
           <input id="h-linert" inputMode="decimal" autoComplete="off" className={cn(fieldCls, "num text-right text-lg")} value={header.linerTempC} onChange={(e) => setHeader({ linerTempC: e.target.value })} />
-          <ParsedEcho text={header.linerTempC} expected={20} unit="°C" decimals={1} onChoose={(linerTempC) => setHeader({ linerTempC })} />
+          <ParsedEcho text={header.linerTempC} expected={20} unit="°C" decimals={2} onChoose={(linerTempC) => setHeader({ linerTempC })} />
         </Field>
         <div className="sm:col-span-2">
           <Field id="h-notes" label="Notes">

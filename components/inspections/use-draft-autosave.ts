@@ -3,7 +3,7 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import type { ContextProfile } from "@/lib/inspections/context";
-import { fromDraft, toDraft, type FormState } from "@/lib/inspections/form";
+import { fromDraft, sameDraft, toDraft, type FormState } from "@/lib/inspections/form";
 import type { InspectionDto } from "@/lib/inspections/schemas";
 
 /** The validator (zod) loads after the sheet, not with it: the first save waits for it, once. */
@@ -116,6 +116,25 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
       } catch (err) {
         if (err instanceof NetworkError) {
           setStatus({ kind: "offline" });
+        } else if (
+          err instanceof ApiError &&
+          err.status === 409 &&
+          (err.body.details?.server as InspectionDto | undefined)?.state === "draft" &&
+          sameDraft((err.body.details!.server as InspectionDto).draft, parsed.data)
+        ) {
+          // The server already holds exactly this (an earlier save whose answer was lost): take its revision.
+          const server = err.body.details!.server as InspectionDto;
+          revisionRef.current = server.revision;
+          fallbackRef.current = server.draft.header;
+          if (seq === editSeq.current) {
+            dirtyRef.current = false;
+            persistLocal(false);
+            setStatus({ kind: "saved", at: server.updatedAt });
+          } else {
+            persistLocal(true);
+            setStatus({ kind: "pending" });
+          }
+          return true;
         } else if (err instanceof ApiError && err.status === 409) {
           blocked.current = true;
           setConflict((err.body.details?.server as InspectionDto | undefined) ?? null);
@@ -185,6 +204,11 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
         setStatus({ kind: "saved", at: local.at });
       } else if (local.baseRevision >= initial.revision) {
         void save();
+      } else if (sameDraft(toDraft(local.form, profile, initial.draft.header).draft, initial.draft)) {
+        // This device's own save reached the server but its answer was lost: nothing differs.
+        dirtyRef.current = false;
+        setRestored(false);
+        persistLocal(false);
       } else {
         blocked.current = true;
         setConflict(initial);

@@ -178,6 +178,7 @@ export async function saveProfile(actor: Actor, p: ProfileData, db: Knex = defau
     ring_count: p.rings.length,
     overhaul_interval_hours: p.overhaulIntervalHours,
     rod_nut_pressure_bar: p.rodNutPressureBar,
+    rod_nut_tolerance_pct: p.rodNutTolerancePct,
     notes: p.notes,
   };
   try {

@@ -229,6 +229,7 @@ export async function getProfileForEdit(
       "axis_b_label",
       "overhaul_interval_hours",
       "rod_nut_pressure_bar",
+      "rod_nut_tolerance_pct",
       "notes",
     );
   if (!p) return null;
@@ -268,6 +269,7 @@ export async function getProfileForEdit(
       axisBLabel: p.axis_b_label,
       overhaulIntervalHours: Number(p.overhaul_interval_hours),
       rodNutPressureBar: num(p.rod_nut_pressure_bar),
+      rodNutTolerancePct: num(p.rod_nut_tolerance_pct),
       notes: p.notes,
       stations: stations.map((s) => ({ key: s.station_key, label: s.label, depthMm: Number(s.depth_mm), role: s.role })),
       rings: rings.map((r) => ({

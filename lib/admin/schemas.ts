@@ -186,6 +186,8 @@ export const profileSchema = z
     axisBLabel: trimmed("second direction name", 40),
     overhaulIntervalHours: num("overhaul interval").refine((v) => v >= 1000 && v <= 60000, "1 000 to 60 000 h."),
     rodNutPressureBar: optionalNum("rod nut pressure").refine((v) => v === null || (v >= 100 && v <= 4000), "100 to 4 000 bar."),
+    /** How far the recorded rod nut pressure may be off the figure above before a record is refused; empty: ±10 %. */
+    rodNutTolerancePct: optionalNum("rod nut pressure tolerance").refine((v) => v === null || (v >= 1 && v <= 25), "1 to 25 %."),
     notes: optionalText("notes", 2000),
     stations: z.array(stationSchema).min(3, "A profile needs at least 3 stations.").max(16, "At most 16 stations."),
     rings: z.array(ringSchema).min(1, "A profile needs at least one ring.").max(8, "At most 8 rings."),
@@ -252,6 +254,7 @@ export const EMPTY_PROFILE: ProfileInput = {
   axisBLabel: "Athwartships",
   overhaulIntervalHours: 16000,
   rodNutPressureBar: null,
+  rodNutTolerancePct: null,
   notes: null,
   stations: [
     { key: "s1", label: "Top, unworn", depthMm: "", role: "unworn_top" },

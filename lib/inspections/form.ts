@@ -305,6 +305,27 @@ export function swapDirections(form: FormState, profile: Pick<ContextProfile, "s
   return { ...form, cells };
 }
 
+/**
+ * Whether two drafts hold the same record (key order and sub-second times aside): a device
+ * whose save reached the server but whose answer was lost (a reload, a dropped network) finds
+ * the server's newer copy equal to its own, which is no conflict.
+ */
+export function sameDraft(a: InspectionDraft, b: InspectionDraft): boolean {
+  const norm = (v: unknown, key?: string): unknown => {
+    if (key === "signedAt" && typeof v === "string") return Math.floor(Date.parse(v) / 1000);
+    if (Array.isArray(v)) return v.map((x) => norm(x));
+    if (v && typeof v === "object") {
+      return Object.fromEntries(
+        Object.keys(v)
+          .sort()
+          .map((k) => [k, norm((v as Record<string, unknown>)[k], k)]),
+      );
+    }
+    return v;
+  };
+  return JSON.stringify(norm(a)) === JSON.stringify(norm(b));
+}
+
 /** A short random token for idempotent creates and tally keys (browser or server crypto). */
 export function randomToken(length = 24): string {
   const alphabet = "abcdefghijklmnopqrstuvwxyz0123456789";

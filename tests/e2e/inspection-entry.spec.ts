@@ -44,7 +44,7 @@ async function startInspection(page: Page, cylinder: string, crew: string, step:
 
 test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul", () => {
   test("an engineer records a full inspection through an offline spell; the chief approves it @tablet", async ({ page, browser, context }, info) => {
-    test.setTimeout(180_000);
+    test.setTimeout(300_000);
     const project = info.project.name;
     await signIn(page, DEMO.engineer);
 
@@ -90,11 +90,17 @@ test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul
 
     // Any plausibility warning is read and confirmed (the values are last time's plus 0.03 mm).
     const confirm = page.getByRole("button", { name: "The reading is right — confirm" });
-    while (await confirm.count()) await confirm.first().click();
+    let confirmed = 0;
+    while (await confirm.count()) {
+      await confirm.first().click();
+      confirmed += 1;
+    }
 
     for (const r of rings) {
       await page.locator(`#ring-${r.position}-gap`).fill(((r.gapNewMinMm + r.gapNewMaxMm) / 2 + 0.3).toFixed(2));
       await page.locator(`#ring-${r.position}-groove`).fill(((r.grooveNewMinMm + r.grooveNewMaxMm) / 2).toFixed(2));
+      // "Gap measured in" has no default: it is answered, never assumed.
+      await page.locator(`label:has(input[name="ring-${r.position}-measured"][value="gauge_ring"])`).click();
     }
     await expect(page.getByText("within the new range").first()).toBeVisible();
 
@@ -125,7 +131,13 @@ test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul
     await expect(page.getByText("✓ stored")).toBeVisible({ timeout: 30_000 });
     await expect(page.locator("#photos img").first()).toBeVisible();
 
-    await expect(page.getByText("✓ Complete: every reading, ring and checklist item is in.")).toBeVisible();
+    // "Complete" only when no caution is left; each confirmed warning stays open for the chief to see.
+    if (confirmed) {
+      await expect(page.getByTestId("submit-cautions").getByText(/confirmed as read/)).toHaveCount(confirmed);
+      await expect(page.getByText("Ready to submit, with the cautions above.")).toBeVisible();
+    } else {
+      await expect(page.getByText("✓ Complete: every reading, ring and checklist item is in")).toBeVisible();
+    }
     await expect(status(page)).toHaveAttribute("data-save-status", "saved", { timeout: 15_000 });
     await shot(page, `inspection-sheet-${project}`);
     await page.getByRole("button", { name: "Submit for approval" }).click();
@@ -139,7 +151,9 @@ test.describe("[ENGINEER][CHIEF][INSPECTION] record, approve and see an overhaul
     const chief = await chiefContext.newPage();
     await signIn(chief, DEMO.chief);
     await chief.goto(`/inspections/${inspectionId}`);
-    await chief.getByRole("button", { name: "Approve" }).click();
+    await chief.getByRole("button", { name: "Approve…" }).click();
+    await expect(chief.getByTestId("approve-confirm")).toContainText("Maximum wear");
+    await chief.getByRole("button", { name: "Approve this record" }).click();
     await expect(chief.getByTestId("inspection-state")).toContainText("Approved");
     // The record shows what changed since the liner's previous gauging (each cell was typed 0.03 mm up).
     await expect(chief.getByTestId("since-previous")).toContainText("Against the previous gauging of this liner");

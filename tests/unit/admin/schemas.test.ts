@@ -22,6 +22,7 @@ const good: ProfileInput = {
   axisBLabel: "Athwartships",
   overhaulIntervalHours: 16000,
   rodNutPressureBar: 1500,
+  rodNutTolerancePct: null,
   notes: null,
   stations: [
     { key: "s1", label: "Top", depthMm: 40, role: "unworn_top" },

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { InspectionContext } from "@/lib/inspections/context";
-import { emptyRing, fromDraft, swapDirections, toDraft } from "@/lib/inspections/form";
+import { emptyRing, fromDraft, sameDraft, swapDirections, toDraft } from "@/lib/inspections/form";
 import { openCautions, readingChecks, rodNutCheck, submissionProblems } from "@/lib/inspections/rules";
 import type { InspectionDraft } from "@/lib/inspections/schemas";
 
@@ -189,5 +189,18 @@ describe("commas in typed numbers are read by the field's expected size", () => 
     form.checklist.rodNutPressure = "35,000"; // neither 35 000 nor 35 bar is near the 1000 bar assumed
     const { invalid } = toDraft(form, { ...profile, rodNutPressureBar: null }, d.header);
     expect(invalid).toEqual(["checklist.rodNutPressureBar"]);
+  });
+});
+
+describe("a device's own save whose answer was lost", () => {
+  it("is the same draft as the server's newer copy, so no conflict", () => {
+    const d = complete();
+    const back = toDraft(fromDraft(d, profile), profile, d.header).draft;
+    // The server keeps the closing time to the second.
+    const server = structuredClone(back);
+    server.checklist.closing.signedAt = "2026-12-01T10:00:00.000Z";
+    expect(sameDraft(back, server)).toBe(true);
+    server.header.crew = "changed on another device";
+    expect(sameDraft(back, server)).toBe(false);
   });
 });
