@@ -3,11 +3,12 @@
 import { useState } from "react";
 import type { ContextProfile } from "@/lib/inspections/context";
 import { parseDecimal, randomToken, type FormState } from "@/lib/inspections/form";
-import { ROD_NUT_TOLERANCE, rodNutDeviation, tallyStatus } from "@/lib/inspections/rules";
+import { rodNutBlockTolerance, rodNutCheck, rodNutDeviation, tallyStatus } from "@/lib/inspections/rules";
 import { formatFixed } from "@/lib/units/length";
 import { cn } from "@/lib/utils";
 import { SafetyCautions } from "./safety-cautions";
 import { OverLimitMark, CautionMark } from "./marks";
+import { ParsedEcho } from "./parsed-echo";
 
 type Checklist = FormState["checklist"];
 
@@ -47,8 +48,10 @@ export function ChecklistForm({
   const [newLabel, setNewLabel] = useState("");
   const statuses = checklist.tally.map((t) => tallyStatus({ countIn: count(t.countIn), countOut: count(t.countOut) }));
   const allMatch = checklist.tally.length > 0 && statuses.every((s) => s === "match");
-  const pressure = parseDecimal(checklist.rodNutPressure);
+  const expectedBar = profile.rodNutPressureBar ?? 1000;
+  const pressure = parseDecimal(checklist.rodNutPressure, expectedBar);
   const dev = rodNutDeviation(profile, typeof pressure === "number" ? pressure : null);
+  const rod = rodNutCheck(profile, typeof pressure === "number" ? pressure : null);
   const signed = !!(checklist.closingName.trim() && checklist.closingAt);
 
   const setTally = (i: number, patch: Partial<Checklist["tally"][number]>) =>
@@ -222,27 +225,41 @@ export function ChecklistForm({
             />
             <span className="pointer-events-none absolute top-1/2 right-3 -translate-y-1/2 text-ink-faint">bar</span>
           </div>
-          <p className="text-sm tabular-nums">
+          <div className="text-sm tabular-nums">
+            {readOnly ? null : (
+              <ParsedEcho text={checklist.rodNutPressure} expected={expectedBar} unit="bar" decimals={1} onChoose={(t) => onChange((c) => ({ ...c, rodNutPressure: t }))} />
+            )}
             {profile.rodNutPressureBar == null ? (
-              <span className="text-ink-faint">The engine profile has no rod nut pressure; use the maker&apos;s manual.</span>
+              <p className="text-ink-faint">The engine profile has no rod nut pressure; use the maker&apos;s manual.</p>
             ) : pressure === "invalid" ? (
-              <span className="font-medium text-caution">⚠ Not a number.</span>
+              <p className="font-medium text-caution">⚠ Not a number yet: not saved.</p>
             ) : dev === null ? (
-              <span className="text-ink-faint">Profile: {formatFixed(profile.rodNutPressureBar, 0)} bar (maker&apos;s manual governs).</span>
-            ) : Math.abs(dev) > ROD_NUT_TOLERANCE ? (
-              <span className="font-semibold text-caution">
+              <p className="text-ink-faint">
+                Profile: {formatFixed(profile.rodNutPressureBar, 0)} bar, within ±{formatFixed(rodNutBlockTolerance(profile) * 100, 0)} % (maker&apos;s manual governs).
+              </p>
+            ) : rod?.level === "error" ? (
+              <p role="alert" className="font-semibold text-limit" data-testid="rodnut-error">
+                <OverLimitMark />
+                {rod.message}
+              </p>
+            ) : rod ? (
+              <p className="font-semibold text-caution" data-testid="rodnut-warning">
                 <CautionMark />
-                {dev > 0 ? "+" : ""}
-                {formatFixed(dev * 100, 1)} % from the profile&apos;s {formatFixed(profile.rodNutPressureBar, 0)} bar: check against the maker&apos;s manual.
-              </span>
+                {rod.message}
+              </p>
             ) : (
-              <span className="text-steady">
+              <p className="text-steady">
                 ✓ Matches the profile&apos;s {formatFixed(profile.rodNutPressureBar, 0)} bar ({dev > 0 ? "+" : ""}
                 {formatFixed(dev * 100, 1)} %).
-              </span>
+              </p>
             )}
-          </p>
+          </div>
         </div>
+        <p className="mt-3 rounded-md border border-ink-line bg-paper p-2 text-sm" data-testid="rodnut-caution">
+          <span aria-hidden="true">⚠ </span>Hydraulic tightening tools work at up to about 1500 bar: never stand in line with the stud, wear eye protection, rope
+          off the area and relieve the pressure before disconnecting a hose. The pressure and the procedure are the maker&apos;s: follow the engine
+          maker&apos;s manual and your company&apos;s safety system.
+        </p>
       </section>
 
       {(

@@ -27,10 +27,13 @@ const resolver: Resolver<FormIn, unknown, FormOut> = async (values, context, opt
   return zodResolver(schema)(values, context, options);
 };
 
-/** Text → number for the schema; text that is not a number goes through as text so the schema names it. */
-const asNumber = (v: unknown) => {
+/**
+ * Text → number for the schema; text that is not a number goes through as text so the schema names it.
+ * `expected` settles a typed "65,950" (an hours counter is never a fraction of its last reading).
+ */
+const asNumber = (v: unknown, expected?: number | null) => {
   if (typeof v !== "string") return v;
-  const n = parseDecimal(v);
+  const n = parseDecimal(v, expected);
   return n === "invalid" ? v : n;
 };
 
@@ -46,6 +49,8 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
   const router = useRouter();
   const token = useRef<string>("");
   const [serverError, setServerError] = useState<string | null>(null);
+  // About how large the hours typed here are: the last counter reading on record.
+  const hoursScale = ctx.previous?.engineHours ?? ctx.hoursLog.at(-1)?.engineHours ?? (ctx.liner.installedEngineHours || null);
   const [offline, setOffline] = useState(false);
   const [pending, setPending] = useState(false);
   const linerTouched = useRef(false);
@@ -86,8 +91,8 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
     if (!token.current) token.current = randomToken(24);
   }, [ctx.unit.id, setValue]);
 
-  const engineHours = asNumber(values.engineHours);
-  const linerHoursValue = asNumber(values.linerHours);
+  const engineHours = asNumber(values.engineHours, hoursScale);
+  const linerHoursValue = asNumber(values.linerHours, hoursScale);
   const derived = typeof engineHours === "number" ? derivedLinerHours(ctx.liner, engineHours) : null;
 
   useEffect(() => {
@@ -154,7 +159,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
         <div>
           <Label htmlFor="engineHours">Engine running hours (counter)</Label>
           <div className="relative">
-            <Input id="engineHours" {...num} aria-invalid={!!err.engineHours || !!hours?.errors.length} aria-describedby="engineHours-help" {...register("engineHours", { setValueAs: asNumber })} />
+            <Input id="engineHours" {...num} aria-invalid={!!err.engineHours || !!hours?.errors.length} aria-describedby="engineHours-help" {...register("engineHours", { setValueAs: (v) => asNumber(v, hoursScale) })} />
             <span className="pointer-events-none absolute top-1/2 right-3 -translate-y-1/2 text-ink-faint">h</span>
           </div>
           <FieldError messages={err.engineHours?.message ? [err.engineHours.message] : undefined} />
@@ -195,7 +200,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
               {...num}
               aria-invalid={!!err.linerHours}
               {...register("linerHours", {
-                setValueAs: asNumber,
+                setValueAs: (v) => asNumber(v, hoursScale),
                 onChange: () => {
                   linerTouched.current = true;
                 },

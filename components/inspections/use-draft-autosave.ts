@@ -246,6 +246,13 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
     return !blocked.current;
   }, [save]);
 
+  /** A step other than saving (a submit) found the server's copy newer: settle it like a save conflict. */
+  const showConflict = useCallback((server: InspectionDto | null, message: string) => {
+    blocked.current = true;
+    setConflict(server);
+    setStatus({ kind: "conflict", message });
+  }, []);
+
   const forget = useCallback(() => {
     try {
       localStorage.removeItem(localKey(id));
@@ -254,5 +261,5 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
     }
   }, [id]);
 
-  return { form, setForm, status, conflict, resolveConflict, invalid, flush, forget, restored, revision: () => revisionRef.current };
+  return { form, setForm, status, conflict, resolveConflict, showConflict, invalid, flush, forget, restored, revision: () => revisionRef.current };
 }

@@ -7,6 +7,8 @@ import { Button, buttonClass } from "@/components/ui/button";
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import { randomToken } from "@/lib/inspections/form";
 import type { InspectionState } from "@/lib/inspections/schemas";
+import type { ApprovalFigures } from "@/lib/inspections/approval";
+import { ApproveConfirm } from "./approve-confirm";
 import { forgetWaitingPhotos } from "@/lib/photos/offline-queue";
 import { cn } from "@/lib/utils";
 
@@ -29,9 +31,20 @@ function messageOf(err: unknown): string {
  * The workflow buttons a role may use in the record's current state. Hiding is only a
  * courtesy: the server checks the role, the vessel and the state on every call.
  */
-export function WorkflowActions({ inspectionId, state, allowed }: { inspectionId: number; state: InspectionState; allowed: WorkflowAllowed }) {
+export function WorkflowActions({
+  inspectionId,
+  state,
+  allowed,
+  approval,
+}: {
+  inspectionId: number;
+  state: InspectionState;
+  allowed: WorkflowAllowed;
+  /** The figures the chief confirms before approving. */
+  approval?: ApprovalFigures;
+}) {
   const router = useRouter();
-  const [mode, setMode] = useState<"none" | "return" | "amend">("none");
+  const [mode, setMode] = useState<"none" | "return" | "amend" | "approve">("none");
   const [text, setText] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -74,8 +87,8 @@ export function WorkflowActions({ inspectionId, state, allowed }: { inspectionId
         ) : null}
         {state === "draft" && allowed.discard ? <DiscardDraft inspectionId={inspectionId} /> : null}
         {state === "submitted" && allowed.approve ? (
-          <Button size="lg" disabled={busy} onClick={() => run("approve", {}, () => router.refresh())}>
-            Approve
+          <Button size="lg" disabled={busy} onClick={() => setMode(mode === "approve" ? "none" : "approve")}>
+            Approve…
           </Button>
         ) : null}
         {state === "submitted" && allowed.return ? (
@@ -89,7 +102,15 @@ export function WorkflowActions({ inspectionId, state, allowed }: { inspectionId
           </Button>
         ) : null}
       </div>
-      {mode !== "none" ? (
+      {mode === "approve" ? (
+        <ApproveConfirm
+          figures={approval}
+          busy={busy}
+          onApprove={() => run("approve", {}, () => router.refresh())}
+          onCancel={() => setMode("none")}
+        />
+      ) : null}
+      {mode === "return" || mode === "amend" ? (
         <form
           className="space-y-2 rounded-lg border border-ink-line bg-paper-raised p-3"
           onSubmit={(e) => {

@@ -5,7 +5,7 @@ const good: ProfileInput = {
   name: "Test profile",
   designation: "T-600",
   boreMm: 600,
-  strokeMm: 2400,
+  strokeMm: 2330,
   linerWearLimitMm: 3.6,
   ovalityLimitMm: 1.2,
   wearReference: "nominal",

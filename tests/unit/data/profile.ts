@@ -4,8 +4,9 @@ import { DEFAULT_AXES } from "@/lib/wear/types";
 
 /**
  * An invented 900 mm bore profile for tests. Wear limit 0.6 % of the bore and ovality limit 1 mm
- * follow the figures BrightHub Engineering gives for large bores [src]; station depths and ring
- * values are invented demo figures, not any maker's.
+ * follow the figures BrightHub Engineering gives for large bores [src]. The groove clearances are
+ * a maker's published clearance table for a 720 mm bore [src] (new range and upper maximum), used
+ * as a check value; the closed gaps and station depths are invented.
  */
 export const RINGS: RingPositionSpec[] = [
   { position: 1, gapNewMinMm: 3.0, gapNewMaxMm: 3.6, gapLimitMm: 6.0, grooveNewMinMm: 0.5, grooveNewMaxMm: 0.58, grooveLimitMm: 1.0 },
