@@ -16,3 +16,9 @@ node --conditions=react-server --import tsx scripts/seed.ts --if-empty --scale "
 # through tsx's on-the-fly transform, whose module wrappers alone doubled the per-reading cost.
 npx esbuild scripts/bench.ts --bundle --platform=node --format=esm --packages=external --log-level=warning --outfile="$ROOT/.bench-data/bench.mjs"
 node --conditions=react-server --expose-gc "$ROOT/.bench-data/bench.mjs"
+# (c) the entry screens' first-load JavaScript, from the last production build when there is one.
+if [ -f "$ROOT/.next/diagnostics/route-bundle-stats.json" ]; then
+  node "$ROOT/scripts/bench-bundle.mjs"
+else
+  echo "first-load JavaScript: no production build in .next (run npx next build, then node scripts/bench-bundle.mjs)"
+fi

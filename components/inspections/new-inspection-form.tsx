@@ -1,9 +1,8 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useEffect, useRef, useState } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, type Resolver } from "react-hook-form";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { enterMovesToNextField, FieldError, Input, Label } from "@/components/ui/field";
@@ -11,13 +10,22 @@ import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import type { InspectionContext } from "@/lib/inspections/context";
 import { parseDecimal, randomToken } from "@/lib/inspections/form";
 import { checkHours, derivedLinerHours, linerHoursDiffer } from "@/lib/inspections/rules";
-import { newInspectionFormSchema } from "@/lib/inspections/schemas";
+import type { newInspectionFormSchema } from "@/lib/inspections/schemas";
 import { day } from "@/lib/format";
 import { formatRunningHours } from "@/lib/wear/calendar";
 import { OverLimitMark, CautionMark } from "./marks";
 
 type FormIn = z.input<typeof newInspectionFormSchema>;
 type FormOut = z.output<typeof newInspectionFormSchema>;
+
+/** The validator (zod and its form adapter) loads just after the form, not with it. */
+const loadValidator = () => Promise.all([import("@hookform/resolvers/zod"), import("@/lib/inspections/schemas")]);
+
+/** The same schema the server parses with, fetched on first use (and prefetched on mount). */
+const resolver: Resolver<FormIn, unknown, FormOut> = async (values, context, options) => {
+  const [{ zodResolver }, { newInspectionFormSchema: schema }] = await loadValidator();
+  return zodResolver(schema)(values, context, options);
+};
 
 /**
  * Text → number for the schema; text that is not a number goes through as text so the schema names it.
@@ -48,7 +56,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
   const linerTouched = useRef(false);
 
   const form = useForm<FormIn, unknown, FormOut>({
-    resolver: zodResolver(newInspectionFormSchema),
+    resolver,
     defaultValues: {
       inspectedOn: today,
       engineHours: undefined as unknown as number,
@@ -62,6 +70,10 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
   });
   const { register, handleSubmit, watch, setValue, formState, setError } = form;
   const values = watch();
+
+  useEffect(() => {
+    void loadValidator().catch(() => undefined);
+  }, []);
 
   useEffect(() => {
     // A create that was interrupted by a lost network resumes with the same token.

@@ -19,7 +19,7 @@ export function AppShell({
     <div className="flex min-h-dvh flex-col">
       <header className="no-print bg-night text-paper">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3 sm:px-6">
-          <Link href="/" className="shrink-0 [&_span_span]:text-[#5fc2d6]" aria-label="Kalibore home">
+          <Link href="/" className="inline-flex min-h-11 shrink-0 items-center [&_span_span]:text-[#5fc2d6]" aria-label="Kalibore home">
             <Wordmark />
           </Link>
           <nav aria-label="Main" className="order-3 flex w-full gap-1 overflow-x-auto sm:order-none sm:w-auto">
