@@ -11,7 +11,7 @@ const config: Config = {
     extend: {
       colors: {
         paper: { DEFAULT: "#f6f5f1", raised: "#ffffff", sunk: "#ebe9e2" },
-        ink: { DEFAULT: "#111720", soft: "#3a4350", faint: "#5f6875", line: "#c9c6bc" },
+        ink: { DEFAULT: "#111720", soft: "#3a4350", faint: "#4d5561", line: "#c9c6bc" },
         signal: { DEFAULT: "#0a5c73", strong: "#07465a", tint: "#dcecef" },
         steady: { DEFAULT: "#1f6b3a", tint: "#e1efe4" },
         caution: { DEFAULT: "#8a5300", tint: "#fbefd6" },

@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { connection } from "next/server";
 import "./globals.css";
 
 const sans = localFont({
@@ -30,7 +31,10 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#111720" };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page renders per request, so each gets the script nonce of its own
+  // Content-Security-Policy (proxy.ts); a page built ahead would carry none and not run.
+  await connection();
   return (
     <html lang="en-GB" className={`${sans.variable} ${mono.variable}`}>
       <body className="min-h-dvh">{children}</body>

@@ -8,7 +8,8 @@
  */
 import knex from "knex";
 import config from "../knexfile";
-import { loadProfiles, loadUnitInputs } from "../lib/analysis/load";
+import { loadUnitInputs } from "../lib/analysis/load";
+import { loadProfiles } from "../lib/profiles/queries";
 import { recomputeAllUnits } from "../lib/analysis/recompute";
 
 const db = knex({ ...config, pool: { min: 1, max: 4 } });

@@ -38,7 +38,8 @@ ensure_chromium
 
 rm -rf "$TEST_DATA_DIR"; mkdir -p "$RESULTS"
 port_free "$S3_FAKE_PORT" "the test S3 fake"; port_free "$SMTP_FAKE_PORT" "the test SMTP fake"; port_free "$E2E_PORT" "the test web server"
-node --import tsx scripts/fakes.ts &
+# The store answers CORS for the app's origins only: the integration tests' and the browser tests' server.
+S3_FAKE_ALLOWED_ORIGINS="http://localhost:$E2E_PORT" node --import tsx scripts/fakes.ts &
 STARTED_PIDS+=("$!")
 wait_port "$S3_FAKE_PORT" "the test S3 fake" 20 "$!"
 start_mariadb "$TEST_DATA_DIR/mariadb" "$DB_PORT" kalibore_it "$DB_USER" "$DB_PASSWORD"

@@ -8,7 +8,7 @@ import { Card, PageHeader } from "@/components/ui/card";
 import { can } from "@/lib/auth/permissions";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { requireUser } from "@/lib/auth/session";
-import { listAwaitingApproval, listEnginesWithUnits, listMyDrafts } from "@/lib/home/queries";
+import { listAwaitingApproval, listAwaitingSomeoneElse, listEnginesWithUnits, listMyDrafts } from "@/lib/home/queries";
 
 export const metadata: Metadata = { title: "Home" };
 
@@ -22,10 +22,11 @@ export default async function HomePage() {
   if (user.role === "superintendent") redirect("/fleet");
 
   const isChief = can(user.role, "inspection.approve");
-  const [engines, drafts, awaiting] = await Promise.all([
+  const [engines, drafts, awaiting, ownSubmitted] = await Promise.all([
     listEnginesWithUnits(user),
     listMyDrafts(user),
     isChief ? listAwaitingApproval(user) : Promise.resolve([]),
+    isChief ? listAwaitingSomeoneElse(user) : Promise.resolve([]),
   ]);
 
   const noVessel = user.vessels !== "all" && user.vessels.length === 0;
@@ -46,6 +47,17 @@ export default async function HomePage() {
                 Awaiting your approval <span className="num text-ink-faint">({awaiting.length})</span>
               </h2>
               <InspectionList rows={awaiting} showBy empty="Nothing waiting: every submitted record has been approved or returned." />
+            </section>
+          ) : null}
+          {isChief && ownSubmitted.length ? (
+            <section aria-labelledby="own-submitted">
+              <h2 id="own-submitted" className="mb-1 text-lg font-semibold">
+                Waiting for another approver <span className="num text-ink-faint">({ownSubmitted.length})</span>
+              </h2>
+              <p className="mb-3 text-sm text-ink-soft">
+                You entered or submitted these yourself, so someone else checks them: another chief engineer of the vessel or the superintendent.
+              </p>
+              <InspectionList rows={ownSubmitted} showBy empty="" />
             </section>
           ) : null}
           <section aria-labelledby="drafts">

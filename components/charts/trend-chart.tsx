@@ -6,13 +6,22 @@ import { GridRows } from "@visx/grid";
 import { Group } from "@visx/group";
 import { scaleLinear } from "@visx/scale";
 import { Area, Line, LinePath } from "@visx/shape";
-import { predict, type LinearFit } from "@/lib/stats/regression";
+import { fixed, hoursText } from "@/lib/format";
+import { predict, type PredictionFit } from "@/lib/stats/regression";
 
-export type TrendPoint = { linerHours: number; valueMm: number | null; steady: boolean; outlier: boolean; date: string };
+export type TrendPoint = {
+  linerHours: number;
+  valueMm: number | null;
+  steady: boolean;
+  outlier: boolean;
+  date: string;
+  /** The gauging's largest reading was judged impossible; the point is its next-largest. */
+  maxExcluded?: boolean;
+};
 
 type Props = {
   points: TrendPoint[];
-  fit: LinearFit | null;
+  fit: PredictionFit | null;
   limitMm: number;
   projection: { atLinerHours: number; lowerHours: number | null; upperHours: number | null } | null;
   runningInHours: number;
@@ -28,7 +37,9 @@ const LIMIT = "#a3161b";
 /**
  * Wear (or ovality) against liner hours: the readings, the least-squares line over the
  * steady part, its 95 % prediction band, and the limit as a heavy dashed line labelled
- * in words. Running-in readings are drawn hollow because the fit leaves them out.
+ * in words. Running-in readings are drawn hollow because the fit leaves them out; a gauging
+ * whose largest reading was judged impossible carries a square around its point (and the
+ * caption under the chart says so in words), since the point shows its next-largest reading.
  */
 export function TrendChart(props: Props) {
   const [ref, width] = useWidth<HTMLDivElement>();
@@ -84,7 +95,7 @@ function Chart({ points, fit, limitMm, projection, runningInHours, width, height
         ) : null}
         <Line from={{ x: 0, y: y(limitMm) }} to={{ x: w, y: y(limitMm) }} stroke={LIMIT} strokeWidth={2.5} strokeDasharray="8 4" />
         <text x={w - 4} y={y(limitMm) - 6} textAnchor="end" fontSize={12} fontWeight={600} fill={LIMIT}>
-          Limit {limitMm.toFixed(2)} mm
+          Limit {fixed(limitMm)} mm
         </text>
         {projection ? (
           <g>
@@ -112,9 +123,12 @@ function Chart({ points, fit, limitMm, projection, runningInHours, width, height
               stroke={INK}
               strokeWidth={1.5}
             >
-              <title>{`${p.date}: ${p.valueMm.toFixed(2)} mm at ${Math.round(p.linerHours)} h${p.steady ? "" : " (running-in, not fitted)"}${p.outlier ? " — flagged as outlier" : ""}`}</title>
+              <title>{`${p.date}: ${fixed(p.valueMm)} mm at ${hoursText(p.linerHours)}${p.steady ? "" : " (running-in, not fitted)"}${p.outlier ? " — flagged as outlier" : ""}${p.maxExcluded ? " — largest reading judged impossible; next-largest shown" : ""}`}</title>
             </circle>
             {p.outlier ? <circle cx={x(p.linerHours)} cy={y(p.valueMm)} r={9} fill="none" stroke={INK} strokeDasharray="2 2" /> : null}
+            {p.maxExcluded ? (
+              <rect x={x(p.linerHours) - 10} y={y(p.valueMm) - 10} width={20} height={20} fill="none" stroke={LIMIT} strokeWidth={2} data-testid="trend-excluded-marker" />
+            ) : null}
           </g>
         ))}
         <AxisLeft scale={y} numTicks={5} stroke={FAINT} tickStroke={FAINT} tickFormat={(v) => Number(v).toFixed(1)} tickLabelProps={{ fill: FAINT, fontSize: 11, fontFamily: "var(--font-sans)" }} label="mm" labelProps={{ fill: FAINT, fontSize: 11 }} />

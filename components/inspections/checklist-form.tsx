@@ -3,11 +3,12 @@
 import { useState } from "react";
 import type { ContextProfile } from "@/lib/inspections/context";
 import { parseDecimal, randomToken, type FormState } from "@/lib/inspections/form";
-import { ROD_NUT_TOLERANCE, rodNutDeviation, tallyStatus } from "@/lib/inspections/rules";
+import { rodNutBlockTolerance, rodNutCheck, rodNutDeviation, tallyStatus } from "@/lib/inspections/rules";
 import { formatFixed } from "@/lib/units/length";
 import { cn } from "@/lib/utils";
 import { SafetyCautions } from "./safety-cautions";
 import { OverLimitMark, CautionMark } from "./marks";
+import { ParsedEcho } from "./parsed-echo";
 
 type Checklist = FormState["checklist"];
 
@@ -47,8 +48,10 @@ export function ChecklistForm({
   const [newLabel, setNewLabel] = useState("");
   const statuses = checklist.tally.map((t) => tallyStatus({ countIn: count(t.countIn), countOut: count(t.countOut) }));
   const allMatch = checklist.tally.length > 0 && statuses.every((s) => s === "match");
-  const pressure = parseDecimal(checklist.rodNutPressure);
+  const expectedBar = profile.rodNutPressureBar ?? 1000;
+  const pressure = parseDecimal(checklist.rodNutPressure, expectedBar);
   const dev = rodNutDeviation(profile, typeof pressure === "number" ? pressure : null);
+  const rod = rodNutCheck(profile, typeof pressure === "number" ? pressure : null);
   const signed = !!(checklist.closingName.trim() && checklist.closingAt);
 
   const setTally = (i: number, patch: Partial<Checklist["tally"][number]>) =>
@@ -63,74 +66,80 @@ export function ChecklistForm({
           Crankcase tool and rag tally
         </h3>
         <p className="text-sm text-ink-soft">Count each kind of tool and rag as it goes in, and again as it comes out.</p>
-        <div className="relative mt-2 overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-          <table className="w-full min-w-[520px] text-sm">
-            <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
-              <tr>
-                <th className="px-3 py-2" scope="col">Tool or item</th>
-                <th className="w-24 px-2 py-2 text-right" scope="col">In</th>
-                <th className="w-24 px-2 py-2 text-right" scope="col">Out</th>
-                <th className="px-3 py-2" scope="col">Tally</th>
-                <th className="w-12 px-2 py-2" scope="col"><span className="sr-only">Remove</span></th>
-              </tr>
-            </thead>
-            <tbody className="divide-y divide-ink-line/70">
-              {checklist.tally.map((t, i) => {
-                const st = statuses[i];
-                return (
-                  <tr key={t.key}>
-                    <td className="px-3 py-1.5">
-                      <input aria-label={`Tool or item ${i + 1}`} className={inputCls} value={t.label} readOnly={readOnly} onChange={(e) => setTally(i, { label: e.target.value })} />
-                    </td>
-                    <td className="px-2 py-1.5">
-                      <input
-                        aria-label={`${t.label || `Item ${i + 1}`}: count taken in`}
-                        inputMode="numeric"
-                        className={cn(inputCls, "num text-right text-lg")}
-                        value={t.countIn}
-                        readOnly={readOnly}
-                        onChange={(e) => setTally(i, { countIn: e.target.value })}
-                      />
-                    </td>
-                    <td className="px-2 py-1.5">
-                      <input
-                        aria-label={`${t.label || `Item ${i + 1}`}: count brought out`}
-                        inputMode="numeric"
-                        className={cn(inputCls, "num text-right text-lg")}
-                        value={t.countOut}
-                        readOnly={readOnly}
-                        onChange={(e) => setTally(i, { countOut: e.target.value })}
-                      />
-                    </td>
-                    <td className="px-3 py-1.5">
-                      {st === "match" ? (
-                        <span className="font-medium text-steady">✓ all out</span>
-                      ) : st === "mismatch" ? (
-                        <span className="font-semibold text-limit">
-                          <OverLimitMark />
-                          {Math.abs((count(t.countIn) ?? 0) - (count(t.countOut) ?? 0))} {(count(t.countOut) ?? 0) < (count(t.countIn) ?? 0) ? "still inside" : "more out than in"}
-                        </span>
-                      ) : (
-                        <span className="text-ink-faint">not counted</span>
-                      )}
-                    </td>
-                    <td className="px-2 py-1.5">
-                      {readOnly ? null : (
-                        <button
-                          type="button"
-                          className="min-h-12 min-w-12 rounded-md text-lg text-ink-soft hover:bg-paper-sunk"
-                          aria-label={`Remove ${t.label || `item ${i + 1}`}`}
-                          onClick={() => onChange((c) => ({ ...c, tally: c.tally.filter((_, j) => j !== i) }))}
-                        >
-                          ×
-                        </button>
-                      )}
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
+        {/*
+          One grid for every width: at a phone's width each item folds onto two lines (name and
+          remove; in, out and the tally), so "still inside" stays on screen beside the counts.
+        */}
+        <div className="mt-2 rounded-lg border border-ink-line bg-paper-raised" role="group" aria-labelledby="tally-h">
+          <div aria-hidden="true" className="hidden grid-cols-[minmax(0,1fr)_6rem_6rem_minmax(8rem,10rem)_3rem] gap-x-2 bg-paper-sunk px-3 py-2 text-left text-xs tracking-wide text-ink-soft uppercase sm:grid">
+            <span>Tool or item</span>
+            <span className="text-right">In</span>
+            <span className="text-right">Out</span>
+            <span>Tally</span>
+            <span />
+          </div>
+          <ul className="divide-y divide-ink-line/70">
+            {checklist.tally.map((t, i) => {
+              const st = statuses[i];
+              return (
+                <li
+                  key={t.key}
+                  data-testid="tally-row"
+                  className="grid grid-cols-[5.5rem_5.5rem_minmax(0,1fr)] items-center gap-x-2 gap-y-1 px-3 py-2 sm:grid-cols-[minmax(0,1fr)_6rem_6rem_minmax(8rem,10rem)_3rem] sm:py-1.5"
+                >
+                  <div className="col-span-2 sm:col-span-1">
+                    <input aria-label={`Tool or item ${i + 1}`} className={inputCls} value={t.label} readOnly={readOnly} onChange={(e) => setTally(i, { label: e.target.value })} />
+                  </div>
+                  <div className="col-start-3 row-start-1 justify-self-end sm:col-start-5">
+                    {readOnly ? null : (
+                      <button
+                        type="button"
+                        className="min-h-12 min-w-12 rounded-md text-lg text-ink-soft hover:bg-paper-sunk"
+                        aria-label={`Remove ${t.label || `item ${i + 1}`}`}
+                        onClick={() => onChange((c) => ({ ...c, tally: c.tally.filter((_, j) => j !== i) }))}
+                      >
+                        ×
+                      </button>
+                    )}
+                  </div>
+                  <label className="block sm:col-start-2 sm:row-start-1">
+                    <span className="text-sm text-ink-soft sm:sr-only">In</span>
+                    <input
+                      aria-label={`${t.label || `Item ${i + 1}`}: count taken in`}
+                      inputMode="numeric"
+                      className={cn(inputCls, "num text-right text-lg")}
+                      value={t.countIn}
+                      readOnly={readOnly}
+                      onChange={(e) => setTally(i, { countIn: e.target.value })}
+                    />
+                  </label>
+                  <label className="block sm:col-start-3 sm:row-start-1">
+                    <span className="text-sm text-ink-soft sm:sr-only">Out</span>
+                    <input
+                      aria-label={`${t.label || `Item ${i + 1}`}: count brought out`}
+                      inputMode="numeric"
+                      className={cn(inputCls, "num text-right text-lg")}
+                      value={t.countOut}
+                      readOnly={readOnly}
+                      onChange={(e) => setTally(i, { countOut: e.target.value })}
+                    />
+                  </label>
+                  <div className="self-end pb-3 sm:col-start-4 sm:row-start-1 sm:self-center sm:pb-0" aria-live="polite">
+                    {st === "match" ? (
+                      <span className="font-medium text-steady">✓ all out</span>
+                    ) : st === "mismatch" ? (
+                      <span className="font-semibold text-limit" data-testid="tally-short">
+                        <OverLimitMark />
+                        {Math.abs((count(t.countIn) ?? 0) - (count(t.countOut) ?? 0))} {(count(t.countOut) ?? 0) < (count(t.countIn) ?? 0) ? "still inside" : "more out than in"}
+                      </span>
+                    ) : (
+                      <span className="text-ink-soft">not counted</span>
+                    )}
+                  </div>
+                </li>
+              );
+            })}
+          </ul>
         </div>
         {readOnly ? null : (
           <form
@@ -216,27 +225,41 @@ export function ChecklistForm({
             />
             <span className="pointer-events-none absolute top-1/2 right-3 -translate-y-1/2 text-ink-faint">bar</span>
           </div>
-          <p className="text-sm tabular-nums">
+          <div className="text-sm tabular-nums">
+            {readOnly ? null : (
+              <ParsedEcho text={checklist.rodNutPressure} expected={expectedBar} unit="bar" decimals={1} onChoose={(t) => onChange((c) => ({ ...c, rodNutPressure: t }))} />
+            )}
             {profile.rodNutPressureBar == null ? (
-              <span className="text-ink-faint">The engine profile has no rod nut pressure; use the maker&apos;s manual.</span>
+              <p className="text-ink-faint">The engine profile has no rod nut pressure; use the maker&apos;s manual.</p>
             ) : pressure === "invalid" ? (
-              <span className="font-medium text-caution">⚠ Not a number.</span>
+              <p className="font-medium text-caution">⚠ Not a number yet: not saved.</p>
             ) : dev === null ? (
-              <span className="text-ink-faint">Profile: {formatFixed(profile.rodNutPressureBar, 0)} bar (maker&apos;s manual governs).</span>
-            ) : Math.abs(dev) > ROD_NUT_TOLERANCE ? (
-              <span className="font-semibold text-caution">
+              <p className="text-ink-faint">
+                Profile: {formatFixed(profile.rodNutPressureBar, 0)} bar, within ±{formatFixed(rodNutBlockTolerance(profile) * 100, 0)} % (maker&apos;s manual governs).
+              </p>
+            ) : rod?.level === "error" ? (
+              <p role="alert" className="font-semibold text-limit" data-testid="rodnut-error">
+                <OverLimitMark />
+                {rod.message}
+              </p>
+            ) : rod ? (
+              <p className="font-semibold text-caution" data-testid="rodnut-warning">
                 <CautionMark />
-                {dev > 0 ? "+" : ""}
-                {formatFixed(dev * 100, 1)} % from the profile&apos;s {formatFixed(profile.rodNutPressureBar, 0)} bar: check against the maker&apos;s manual.
-              </span>
+                {rod.message}
+              </p>
             ) : (
-              <span className="text-steady">
+              <p className="text-steady">
                 ✓ Matches the profile&apos;s {formatFixed(profile.rodNutPressureBar, 0)} bar ({dev > 0 ? "+" : ""}
                 {formatFixed(dev * 100, 1)} %).
-              </span>
+              </p>
             )}
-          </p>
+          </div>
         </div>
+        <p className="mt-3 rounded-md border border-ink-line bg-paper p-2 text-sm" data-testid="rodnut-caution">
+          <span aria-hidden="true">⚠ </span>Hydraulic tightening tools work at up to about 1500 bar: never stand in line with the stud, wear eye protection, rope
+          off the area and relieve the pressure before disconnecting a hose. The pressure and the procedure are the maker&apos;s: follow the engine
+          maker&apos;s manual and your company&apos;s safety system.
+        </p>
       </section>
 
       {(

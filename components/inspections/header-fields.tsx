@@ -6,6 +6,7 @@ import { derivedLinerHours, linerHoursDiffer, type HoursCheck } from "@/lib/insp
 import { day } from "@/lib/format";
 import { formatRunningHours } from "@/lib/wear/calendar";
 import { cn } from "@/lib/utils";
+import { ParsedEcho } from "./parsed-echo";
 import { Field, fieldCls, Messages } from "./sheet-fields";
 
 /** The sheet's header section: date, engine and liner hours (with the derived liner hours), crew, temperatures, notes. */
@@ -14,15 +15,20 @@ export function HeaderFields({
   setHeader,
   ctx,
   hours,
+  saved,
 }: {
   header: FormState["header"];
+  /** The header as last saved: its hours settle a typed "65,950" the way the draft reads it. */
+  saved: { engineHours: number; linerHours: number };
   setHeader: (patch: Partial<FormState["header"]>) => void;
   ctx: InspectionContext;
   hours: HoursCheck;
 }) {
-  const engineParsed = parseDecimal(header.engineHours);
+  const engineScale = saved.engineHours || null;
+  const linerScale = saved.linerHours || null;
+  const engineParsed = parseDecimal(header.engineHours, engineScale);
   const derived = typeof engineParsed === "number" ? derivedLinerHours(ctx.liner, engineParsed) : null;
-  const linerParsed = parseDecimal(header.linerHours);
+  const linerParsed = parseDecimal(header.linerHours, linerScale);
   const linerDiffers = derived !== null && typeof linerParsed === "number" && linerHoursDiffer(derived, linerParsed);
 
   return (
@@ -44,6 +50,7 @@ export function HeaderFields({
             aria-invalid={hours.errors.some((e) => e.field === "header.engineHours") || undefined}
             onChange={(e) => setHeader({ engineHours: e.target.value })}
           />
+          <ParsedEcho text={header.engineHours} expected={engineScale} unit="h" decimals={1} onChoose={(engineHours) => setHeader({ engineHours })} />
         </Field>
         <Field id="h-liner" label="Liner hours" unit="h">
           <input
@@ -54,6 +61,7 @@ export function HeaderFields({
             value={header.linerHours}
             onChange={(e) => setHeader({ linerHours: e.target.value })}
           />
+          <ParsedEcho text={header.linerHours} expected={linerScale} unit="h" decimals={1} onChoose={(linerHours) => setHeader({ linerHours })} />
         </Field>
         <Field id="h-crew" label="Crew">
           <input id="h-crew" autoComplete="off" className={fieldCls} value={header.crew} onChange={(e) => setHeader({ crew: e.target.value })} />
@@ -91,9 +99,11 @@ export function HeaderFields({
         ) : null}
         <Field id="h-gauge" label="Micrometer temperature" unit="°C">
           <input id="h-gauge" inputMode="decimal" autoComplete="off" className={cn(fieldCls, "num text-right text-lg")} value={header.gaugeTempC} onChange={(e) => setHeader({ gaugeTempC: e.target.value })} />
+          <ParsedEcho text={header.gaugeTempC} expected={20} unit="°C" decimals={1} onChoose={(gaugeTempC) => setHeader({ gaugeTempC })} />
         </Field>
         <Field id="h-linert" label="Liner temperature" unit="°C">
           <input id="h-linert" inputMode="decimal" autoComplete="off" className={cn(fieldCls, "num text-right text-lg")} value={header.linerTempC} onChange={(e) => setHeader({ linerTempC: e.target.value })} />
+          <ParsedEcho text={header.linerTempC} expected={20} unit="°C" decimals={1} onChoose={(linerTempC) => setHeader({ linerTempC })} />
         </Field>
         <div className="sm:col-span-2">
           <Field id="h-notes" label="Notes">

@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { formatFixed, type LengthUnit } from "@/lib/units/length";
 import type { InspectionContext } from "@/lib/inspections/context";
-import { emptyRing, ringInUnit, type FormState } from "@/lib/inspections/form";
+import { emptyRing, ringInUnit, swapDirections, type FormState } from "@/lib/inspections/form";
 import type { InspectionDto } from "@/lib/inspections/schemas";
 import { ChecklistForm } from "./checklist-form";
 import { ConflictPanel } from "./conflict-panel";
@@ -22,9 +22,9 @@ import { useSheetAnalysis } from "./use-sheet-analysis";
  * checks the server applies on submit shown as the engineer types.
  */
 export function InspectionEditor({ initial, ctx, canSubmit }: { initial: InspectionDto; ctx: InspectionContext; canSubmit: boolean }) {
-  const { form, setForm, status, conflict, resolveConflict, invalid, flush, forget, restored } = useDraftAutosave(initial, ctx.profile);
+  const { form, setForm, status, conflict, resolveConflict, showConflict, invalid, flush, forget, restored, revision } = useDraftAutosave(initial, ctx.profile);
   const profile = ctx.profile;
-  const { draft, analysis, warnings, hours, problems } = useSheetAnalysis(form, initial, ctx);
+  const { draft, analysis, checks, hours, problems, cautions } = useSheetAnalysis(form, initial, ctx);
 
   const setHeader = (patch: Partial<FormState["header"]>) => setForm((f) => ({ ...f, header: { ...f.header, ...patch } }));
   const filled = draft.readings.length;
@@ -60,7 +60,7 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
         </p>
       ) : null}
 
-      <HeaderFields header={form.header} setHeader={setHeader} ctx={ctx} hours={hours} />
+      <HeaderFields header={form.header} setHeader={setHeader} ctx={ctx} hours={hours} saved={initial.draft.header} />
 
       <section id="liner" aria-labelledby="liner-h" className="scroll-mt-32">
         <div className="mb-3 flex flex-wrap items-end justify-between gap-2">
@@ -85,11 +85,15 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
           cells={form.cells}
           entryUnit={form.entryUnit}
           analysis={analysis}
-          warnings={warnings}
+          checks={checks}
           previous={ctx.previous && ctx.previous.linerId === ctx.liner.id ? ctx.previous : null}
           afterLastId={profile.rings.length ? ringInputId(profile.rings[0].position, "gap") : undefined}
           onChange={(key, text) => setForm((f) => ({ ...f, cells: { ...f.cells, [key]: { text, unit: f.entryUnit, confirmed: null } } }))}
           onConfirm={(key, confirmed) => setForm((f) => ({ ...f, cells: { ...f.cells, [key]: { ...f.cells[key], confirmed } } }))}
+          onConfirmAll={(keys, confirmed) =>
+            setForm((f) => ({ ...f, cells: { ...f.cells, ...Object.fromEntries(keys.filter((k) => f.cells[k]).map((k) => [k, { ...f.cells[k], confirmed }])) } }))
+          }
+          onSwapDirections={() => setForm((f) => swapDirections(f, profile))}
         />
         <p className="mt-2 text-sm tabular-nums">
           {analysis.maxWear ? (
@@ -138,7 +142,17 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
         <PhotoPanel inspectionId={initial.id} initial={initial.photos} profile={profile} editable />
       </section>
 
-      <SubmitPanel inspectionId={initial.id} problems={problems} canSubmit={canSubmit} blocked={!!conflict} flush={flush} forget={forget} />
+      <SubmitPanel
+        inspectionId={initial.id}
+        problems={problems}
+        cautions={cautions}
+        canSubmit={canSubmit}
+        blocked={!!conflict}
+        flush={flush}
+        forget={forget}
+        revision={revision}
+        onConflict={showConflict}
+      />
     </div>
   );
 }

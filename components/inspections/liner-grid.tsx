@@ -2,25 +2,29 @@
 
 import { useRef } from "react";
 import { cellKey, type ContextProfile, type PreviousInspection } from "@/lib/inspections/context";
-import { lengthText, parseDecimal, toMm, type CellEntry } from "@/lib/inspections/form";
-import { warningText } from "@/lib/inspections/rules";
+import { expectedIn, lengthText, parseDecimal, toMm, type CellEntry } from "@/lib/inspections/form";
+import { confirmable, warningText, type ReadingChecks } from "@/lib/inspections/rules";
 import { formatFixed, type LengthUnit } from "@/lib/units/length";
 import type { InspectionAnalysis } from "@/lib/wear/inspection";
-import type { ReadingWarning } from "@/lib/wear/plausibility";
 import { WEAR_RULES } from "@/lib/wear/types";
 import { cn } from "@/lib/utils";
 import { OverLimitMark, CautionMark, OkMark } from "./marks";
+import { ParsedEcho } from "./parsed-echo";
 
 export type GridProps = {
   profile: ContextProfile;
   cells: Record<string, CellEntry>;
   entryUnit: LengthUnit;
   analysis: InspectionAnalysis;
-  warnings: Map<string, ReadingWarning[]>;
+  checks: ReadingChecks;
   previous: PreviousInspection | null;
   readOnly?: boolean;
   onChange: (key: string, text: string) => void;
   onConfirm: (key: string, confirmed: string | null) => void;
+  /** Confirms (or, with null, withdraws) one warning that stands for every cell, such as "every cell holds the same value". */
+  onConfirmAll?: (keys: string[], confirmed: string | null) => void;
+  /** Exchanges the two directions' typed values at every station. */
+  onSwapDirections?: () => void;
   /** Where Enter goes after the last cell of the last column. */
   afterLastId?: string;
 };
@@ -43,7 +47,7 @@ export const cellInputId = (station: number, axis: number) => `cell-${station}-$
  * gauge is read. Under each value: the wear at 20 °C against the limit in words, the
  * plausibility warnings to confirm or correct, and last time's reading.
  */
-export function LinerGrid({ profile, cells, entryUnit, analysis, warnings, previous, readOnly, onChange, onConfirm, afterLastId }: GridProps) {
+export function LinerGrid({ profile, cells, entryUnit, analysis, checks, previous, readOnly, onChange, onConfirm, onConfirmAll, onSwapDirections, afterLastId }: GridProps) {
   const root = useRef<HTMLDivElement>(null);
   const stations = profile.stations;
   const axes = profile.axes;
@@ -61,7 +65,56 @@ export function LinerGrid({ profile, cells, entryUnit, analysis, warnings, previ
     el?.select?.();
   }
 
+  const same = checks.sheet.find((f) => f.code === "same_value_everywhere");
+  const sameKeys = same ? [...checks.cells.entries()].filter(([, list]) => list.some((f) => f.code === "same_value_everywhere")).map(([k]) => k) : [];
+  const sameText = same ? warningText([same]) : null;
+  const sameConfirmed = !!same && sameKeys.length > 0 && sameKeys.every((k) => cells[k]?.confirmed === sameText);
+  const swapped = checks.sheet.find((f) => f.code === "directions_swapped");
+
   return (
+    <>
+    {same || swapped ? (
+      <div className="mb-3 max-w-5xl space-y-2" data-testid="sheet-findings">
+        {same ? (
+          <div role="alert" className={cn("rounded-lg border-2 p-3", sameConfirmed ? "border-ink-line bg-paper-raised" : "border-caution bg-caution-tint")}>
+            <p className={sameConfirmed ? "text-ink-soft" : "font-medium text-caution"}>
+              {sameConfirmed ? <OkMark /> : <CautionMark />}
+              {same.message}
+            </p>
+            {readOnly || !onConfirmAll ? null : sameConfirmed ? (
+              <button type="button" className="mt-1 min-h-11 text-sm font-medium text-signal underline" onClick={() => onConfirmAll(sameKeys, null)}>
+                Confirmed as read — undo
+              </button>
+            ) : (
+              <button
+                type="button"
+                className="mt-2 min-h-12 rounded-md border border-ink-line bg-paper-raised px-3 text-sm font-medium text-ink hover:border-signal"
+                onClick={() => onConfirmAll(sameKeys, sameText)}
+              >
+                The readings are right — confirm once for every cell
+              </button>
+            )}
+          </div>
+        ) : null}
+        {swapped ? (
+          <div role="alert" className="rounded-lg border-2 border-caution bg-caution-tint p-3">
+            <p className="font-medium text-caution">
+              <CautionMark />
+              {swapped.message}
+            </p>
+            {readOnly || !onSwapDirections ? null : (
+              <button
+                type="button"
+                className="mt-2 min-h-12 rounded-md border border-ink-line bg-paper-raised px-3 text-sm font-semibold text-ink hover:border-signal"
+                onClick={onSwapDirections}
+              >
+                Swap {axes[0].label.toLowerCase()} and {axes[1].label.toLowerCase()}
+              </button>
+            )}
+          </div>
+        ) : null}
+      </div>
+    ) : null}
     <div ref={root} role="group" aria-label="Liner gauging sheet" className="max-w-5xl rounded-lg border border-ink-line bg-paper-raised">
       <div className="hidden grid-cols-[minmax(9rem,1fr)_minmax(12rem,1.5fr)_minmax(12rem,1.5fr)_minmax(8rem,0.9fr)] gap-x-3 border-b border-ink-line bg-paper-sunk px-3 py-2 text-xs font-medium tracking-wide text-ink-soft uppercase md:grid">
         <div>Station · depth</div>
@@ -95,7 +148,10 @@ export function LinerGrid({ profile, cells, entryUnit, analysis, warnings, previ
                 const parsed = cell ? parseDecimal(cell.text) : null;
                 const bad = parsed === "invalid" || (typeof parsed === "number" && parsed <= 0);
                 const result = cellResult.get(key);
-                const ws = warnings.get(key) ?? [];
+                const findings = checks.cells.get(key) ?? [];
+                const errors = findings.filter((f) => f.level === "error");
+                // A warning standing for every cell is shown once, above the grid.
+                const ws = confirmable(findings).filter((f) => f.code !== "same_value_everywhere");
                 const wText = ws.length ? warningText(ws) : null;
                 const confirmed = !!cell?.confirmed && cell.confirmed === wText;
                 const wear = result?.wearMm ?? null;
@@ -120,7 +176,7 @@ export function LinerGrid({ profile, cells, entryUnit, analysis, warnings, previ
                       readOnly={readOnly}
                       aria-label={`${s.label}, ${a.label}, in ${entryUnit === "mm" ? "millimetres" : "inches"}`}
                       aria-describedby={helpId}
-                      aria-invalid={bad || (ws.length > 0 && !confirmed) || undefined}
+                      aria-invalid={bad || errors.length > 0 || (ws.length > 0 && !confirmed) || undefined}
                       value={text}
                       onChange={(e) => onChange(key, e.target.value)}
                       onKeyDown={(e) => onKeyDown(e, si, ai)}
@@ -128,16 +184,36 @@ export function LinerGrid({ profile, cells, entryUnit, analysis, warnings, previ
                       className={cn(
                         "num block min-h-12 w-full rounded-md border bg-paper-raised px-3 text-right text-lg text-ink",
                         "focus:border-signal focus:ring-2 focus:ring-signal/30 focus:outline-none",
-                        bad ? "border-caution border-2" : ws.length && !confirmed ? "border-caution" : "border-ink-line",
+                        bad || errors.length ? "border-2 border-limit" : ws.length && !confirmed ? "border-caution" : "border-ink-line",
                       )}
                     />
                     <div id={helpId} className="mt-1 space-y-1 text-sm leading-snug" aria-live="polite">
+                      {cell && !readOnly ? (
+                        <ParsedEcho
+                          text={text}
+                          expected={expectedIn(profile.boreMm, entryUnit)}
+                          unit={entryUnit}
+                          decimals={entryUnit === "mm" ? 3 : 4}
+                          onChoose={(t) => onChange(key, t)}
+                        />
+                      ) : null}
                       {bad ? (
                         <p className="font-medium text-caution">
                           <span aria-hidden="true">⚠ </span>Not a diameter — kept on this device, not saved. Type digits and a decimal point.
                         </p>
                       ) : null}
-                      {result && !bad ? (
+                      {errors.length && !bad ? (
+                        <div role="alert" className="rounded border-2 border-limit p-2" data-testid="cell-error">
+                          {errors.map((f) => (
+                            <p key={f.code} className="font-medium text-limit">
+                              <OverLimitMark />
+                              {f.message}
+                            </p>
+                          ))}
+                          <p className="mt-1 text-ink-soft">This cannot be confirmed: retype the reading.</p>
+                        </div>
+                      ) : null}
+                      {result && !bad && !errors.length ? (
                         <p className={cn("tabular-nums", over ? "font-semibold text-limit" : near ? "font-medium text-caution" : "text-ink-soft")}>
                           {over ? <OverLimitMark /> : near ? <CautionMark /> : null}
                           wear {mm2(wear)} mm
@@ -154,16 +230,16 @@ export function LinerGrid({ profile, cells, entryUnit, analysis, warnings, previ
                           {cell && cell.unit === "in" ? <span className="block text-ink-faint">= {formatFixed(result.rawMm, 3)} mm as read</span> : null}
                         </p>
                       ) : null}
-                      {ws.length && !bad ? (
+                      {ws.length && !bad && !errors.length ? (
                         <div className={cn("rounded border p-2", confirmed ? "border-ink-line bg-paper" : "border-caution bg-caution-tint")}>
                           {ws.map((w) => (
-                            <p key={w.kind} className={confirmed ? "text-ink-soft" : "font-medium text-caution"}>
+                            <p key={w.code} className={confirmed ? "text-ink-soft" : "font-medium text-caution"}>
                               {confirmed ? <OkMark /> : <CautionMark />}
                               {w.message}
                             </p>
                           ))}
                           {readOnly ? null : confirmed ? (
-                            <button type="button" className="mt-1 min-h-10 text-sm font-medium text-signal underline" onClick={() => onConfirm(key, null)}>
+                            <button type="button" className="mt-1 min-h-11 text-sm font-medium text-signal underline" onClick={() => onConfirm(key, null)}>
                               Confirmed as read — undo
                             </button>
                           ) : (
@@ -203,5 +279,6 @@ export function LinerGrid({ profile, cells, entryUnit, analysis, warnings, previ
         })}
       </ol>
     </div>
+    </>
   );
 }

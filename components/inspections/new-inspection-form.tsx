@@ -6,7 +6,7 @@ import { useEffect, useRef, useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
-import { FieldError, Input, Label } from "@/components/ui/field";
+import { enterMovesToNextField, FieldError, Input, Label } from "@/components/ui/field";
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import type { InspectionContext } from "@/lib/inspections/context";
 import { parseDecimal, randomToken } from "@/lib/inspections/form";
@@ -19,10 +19,13 @@ import { OverLimitMark, CautionMark } from "./marks";
 type FormIn = z.input<typeof newInspectionFormSchema>;
 type FormOut = z.output<typeof newInspectionFormSchema>;
 
-/** Text → number for the schema; text that is not a number goes through as text so the schema names it. */
-const asNumber = (v: unknown) => {
+/**
+ * Text → number for the schema; text that is not a number goes through as text so the schema names it.
+ * `expected` settles a typed "65,950" (an hours counter is never a fraction of its last reading).
+ */
+const asNumber = (v: unknown, expected?: number | null) => {
   if (typeof v !== "string") return v;
-  const n = parseDecimal(v);
+  const n = parseDecimal(v, expected);
   return n === "invalid" ? v : n;
 };
 
@@ -38,6 +41,8 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
   const router = useRouter();
   const token = useRef<string>("");
   const [serverError, setServerError] = useState<string | null>(null);
+  // About how large the hours typed here are: the last counter reading on record.
+  const hoursScale = ctx.previous?.engineHours ?? ctx.hoursLog.at(-1)?.engineHours ?? (ctx.liner.installedEngineHours || null);
   const [offline, setOffline] = useState(false);
   const [pending, setPending] = useState(false);
   const linerTouched = useRef(false);
@@ -74,8 +79,8 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
     if (!token.current) token.current = randomToken(24);
   }, [ctx.unit.id, setValue]);
 
-  const engineHours = asNumber(values.engineHours);
-  const linerHoursValue = asNumber(values.linerHours);
+  const engineHours = asNumber(values.engineHours, hoursScale);
+  const linerHoursValue = asNumber(values.linerHours, hoursScale);
   const derived = typeof engineHours === "number" ? derivedLinerHours(ctx.liner, engineHours) : null;
 
   useEffect(() => {
@@ -97,9 +102,10 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
     setServerError(null);
     setPending(true);
     try {
-      const res = await apiJson<{ id: number }>("/api/inspections", { method: "POST", body: { ...input, unitId: ctx.unit.id, clientToken: token.current } });
+      const res = await apiJson<{ id: number; existing?: boolean }>("/api/inspections", { method: "POST", body: { ...input, unitId: ctx.unit.id, clientToken: token.current } });
       localStorage.removeItem(pendingKey(ctx.unit.id));
-      router.push(`/inspections/${res.id}/edit`);
+      // The unit already had an open draft (another device, a crew mate): that one opens, not a second.
+      router.push(res.existing ? `/inspections/${res.id}/edit?opened=existing` : `/inspections/${res.id}/edit`);
     } catch (err) {
       setPending(false);
       if (err instanceof NetworkError) {
@@ -130,7 +136,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
   const err = formState.errors;
   const num = { inputMode: "decimal" as const, autoComplete: "off", className: "mt-1 num min-h-12 pr-12 text-right text-lg" };
   return (
-    <form onSubmit={handleSubmit(create)} noValidate className="space-y-6">
+    <form onSubmit={handleSubmit(create)} onKeyDown={enterMovesToNextField} noValidate className="space-y-6">
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-lg font-semibold">Date and running hours</legend>
         <div>
@@ -141,7 +147,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
         <div>
           <Label htmlFor="engineHours">Engine running hours (counter)</Label>
           <div className="relative">
-            <Input id="engineHours" {...num} aria-invalid={!!err.engineHours || !!hours?.errors.length} aria-describedby="engineHours-help" {...register("engineHours", { setValueAs: asNumber })} />
+            <Input id="engineHours" {...num} aria-invalid={!!err.engineHours || !!hours?.errors.length} aria-describedby="engineHours-help" {...register("engineHours", { setValueAs: (v) => asNumber(v, hoursScale) })} />
             <span className="pointer-events-none absolute top-1/2 right-3 -translate-y-1/2 text-ink-faint">h</span>
           </div>
           <FieldError messages={err.engineHours?.message ? [err.engineHours.message] : undefined} />
@@ -182,7 +188,7 @@ export function NewInspectionForm({ ctx, today }: { ctx: InspectionContext; toda
               {...num}
               aria-invalid={!!err.linerHours}
               {...register("linerHours", {
-                setValueAs: asNumber,
+                setValueAs: (v) => asNumber(v, hoursScale),
                 onChange: () => {
                   linerTouched.current = true;
                 },

@@ -1,18 +1,32 @@
 "use client";
 
-import { useRef, useState } from "react";
+import { useCallback, useEffect, useRef, useState } from "react";
 import useSWR from "swr";
 import { ApiError, apiJson, fetchJson, NetworkError } from "@/lib/inspections/api-client";
 import type { ContextProfile } from "@/lib/inspections/context";
-import { PHOTO_MAX_BYTES, type InspectionDto, type PhotoDto } from "@/lib/inspections/schemas";
+import { PHOTO_MAX_BYTES } from "@/lib/inspections/constants";
+import type { InspectionDto, PhotoDto } from "@/lib/inspections/schemas";
+import { dropWaitingPhoto, keepWaitingPhoto, listWaitingPhotos, type WaitingPhoto } from "@/lib/photos/offline-queue";
+import { localPhotoRefusal, photoRefusalMessage, storeRefusalMessage, stripTechnical } from "@/lib/photos/upload-messages";
 import { cn } from "@/lib/utils";
 
-type Upload = { key: string; name: string; progress: number; state: "uploading" | "checking" | "done" | "failed"; message?: string };
+type Upload = {
+  key: string;
+  name: string;
+  progress: number;
+  state: "uploading" | "checking" | "done" | "failed" | "waiting";
+  message?: string;
+};
 
 const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
 
+/** The upload could not reach the store or the server: keep the photo and try again later. */
+class Unreachable extends Error {}
+/** The server or the store refused the photo: say why in plain words, and do not keep it. */
+class Refused extends Error {}
+
 /** PUT straight to the object store with upload progress (fetch cannot report it). */
-function putWithProgress(url: string, file: File, headers: Record<string, string>, onProgress: (f: number) => void): Promise<void> {
+function putWithProgress(url: string, file: Blob, headers: Record<string, string>, onProgress: (f: number) => void): Promise<void> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open("PUT", url);
@@ -20,10 +34,38 @@ function putWithProgress(url: string, file: File, headers: Record<string, string
     xhr.upload.onprogress = (e) => {
       if (e.lengthComputable) onProgress(e.loaded / e.total);
     };
-    xhr.onload = () => (xhr.status >= 200 && xhr.status < 300 ? resolve() : reject(new Error(`The object store answered ${xhr.status}.`)));
-    xhr.onerror = () => reject(new NetworkError());
+    xhr.onload = () => (xhr.status >= 200 && xhr.status < 300 ? resolve() : reject(xhr.status >= 500 ? new Unreachable() : new Refused()));
+    xhr.onerror = () => reject(new Unreachable());
     xhr.send(file);
   });
+}
+
+/** One photo through the three steps (slot, PUT to the store, the server's check), with the same checks online or from the queue. */
+async function sendPhoto(inspectionId: number, p: Omit<WaitingPhoto, "keptAt">, onProgress: (f: number) => void, onChecking: () => void) {
+  try {
+    const slot = await apiJson<{ fileId: number; uploadUrl: string; headers: Record<string, string> }>(`/api/inspections/${inspectionId}/photos`, {
+      method: "POST",
+      body: { fileName: p.name || "photo", contentType: p.type || "application/octet-stream", sizeBytes: p.size },
+    });
+    try {
+      await putWithProgress(slot.uploadUrl, p.blob, slot.headers, onProgress);
+    } catch (err) {
+      if (err instanceof Refused) throw new Refused(storeRefusalMessage(p.name));
+      throw err;
+    }
+    onChecking();
+    return await apiJson<PhotoDto & { note?: string }>(`/api/inspections/${inspectionId}/photos/complete`, {
+      method: "POST",
+      body: { fileId: slot.fileId, caption: p.caption, stationKey: p.stationKey, ringPosition: p.ringPosition },
+    });
+  } catch (err) {
+    if (err instanceof NetworkError || err instanceof Unreachable) throw new Unreachable();
+    if (err instanceof ApiError) {
+      if (err.status >= 500) throw new Unreachable();
+      throw new Refused(photoRefusalMessage(p.name, { status: err.status, message: err.message, field: err.body.details?.field }));
+    }
+    throw err;
+  }
 }
 
 export function photoUrl(inspectionId: number, photoId: number, variant: "thumb" | "full") {
@@ -54,42 +96,106 @@ export function PhotoPanel({ inspectionId, initial, profile, editable }: { inspe
   const input = useRef<HTMLInputElement>(null);
 
   const update = (key: string, patch: Partial<Upload>) => setUploads((u) => u.map((x) => (x.key === key ? { ...x, ...patch } : x)));
+  const [waiting, setWaiting] = useState<(WaitingPhoto & { url: string })[]>([]);
+  const syncing = useRef(false);
+
+  const refreshWaiting = useCallback(async () => {
+    const list = await listWaitingPhotos(inspectionId);
+    setWaiting((old) => {
+      for (const w of old) if (!list.some((l) => l.key === w.key)) URL.revokeObjectURL(w.url);
+      return list.map((l) => old.find((w) => w.key === l.key) ?? { ...l, url: URL.createObjectURL(l.blob) });
+    });
+    return list;
+  }, [inspectionId]);
+
+  /** Keeps a photo on this device; says so, or why it could not. */
+  async function keep(photo: WaitingPhoto, uploadKey: string) {
+    try {
+      await keepWaitingPhoto(photo);
+      setUploads((u) => u.filter((x) => x.key !== uploadKey));
+      await refreshWaiting();
+    } catch {
+      update(uploadKey, {
+        state: "failed",
+        message: `No network, and this device could not keep “${photo.name}” (its storage may be full). Take the photo again when you are back online.`,
+      });
+    }
+  }
+
+  /** Uploads the photos kept on this device, oldest first, once the network is back. */
+  const sendWaiting = useCallback(async () => {
+    if (syncing.current || !navigator.onLine) return;
+    syncing.current = true;
+    try {
+      for (const w of await listWaitingPhotos(inspectionId)) {
+        setUploads((u) => [...u.filter((x) => x.key !== w.key), { key: w.key, name: w.name, progress: 0, state: "uploading" }]);
+        try {
+          const photo = await sendPhoto(inspectionId, w, (f) => update(w.key, { progress: f }), () => update(w.key, { state: "checking", progress: 1 }));
+          await dropWaitingPhoto(w.key);
+          update(w.key, { state: "done", message: photo.note ?? `Taken without a network at ${new Date(w.keptAt).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}; now stored.` });
+          await mutate();
+        } catch (err) {
+          if (err instanceof Unreachable) {
+            setUploads((u) => u.filter((x) => x.key !== w.key));
+            break;
+          }
+          // Refused by the same checks as any photo: it will never pass, so it is not kept.
+          await dropWaitingPhoto(w.key);
+          update(w.key, { state: "failed", message: err instanceof Error ? err.message : "The photo was not kept." });
+        }
+      }
+    } finally {
+      syncing.current = false;
+      await refreshWaiting();
+    }
+  }, [inspectionId, mutate, refreshWaiting]);
+
+  useEffect(() => {
+    void refreshWaiting().then((list) => (list.length ? sendWaiting() : undefined));
+    const online = () => void sendWaiting();
+    window.addEventListener("online", online);
+    const t = window.setInterval(() => void sendWaiting(), 20_000);
+    return () => {
+      window.removeEventListener("online", online);
+      window.clearInterval(t);
+    };
+  }, [refreshWaiting, sendWaiting]);
+
+  useEffect(() => () => waiting.forEach((w) => URL.revokeObjectURL(w.url)), []); // eslint-disable-line react-hooks/exhaustive-deps
 
   async function uploadOne(file: File) {
     const key = `${file.name}-${file.size}-${Date.now()}-${Math.random()}`;
     setUploads((u) => [...u, { key, name: file.name, progress: 0, state: "uploading" }]);
-    if (file.size > PHOTO_MAX_BYTES) {
-      update(key, { state: "failed", message: `${file.name} is ${mb(file.size)}; the limit is ${mb(PHOTO_MAX_BYTES)}. Take it again at a lower resolution.` });
+    const refusal = localPhotoRefusal(file);
+    if (refusal) {
+      update(key, { state: "failed", message: refusal });
+      return;
+    }
+    const [kind, value] = attach.split(":");
+    const photo: WaitingPhoto = {
+      key,
+      inspectionId,
+      name: file.name || "photo",
+      type: file.type,
+      size: file.size,
+      blob: file,
+      caption: caption.trim() || null,
+      stationKey: kind === "station" ? value : null,
+      ringPosition: kind === "ring" ? Number(value) : null,
+      keptAt: new Date().toISOString(),
+    };
+    setCaption("");
+    if (!navigator.onLine) {
+      await keep(photo, key);
       return;
     }
     try {
-      const slot = await apiJson<{ fileId: number; uploadUrl: string; headers: Record<string, string> }>(`/api/inspections/${inspectionId}/photos`, {
-        method: "POST",
-        body: { fileName: file.name || "photo", contentType: file.type || "application/octet-stream", sizeBytes: file.size },
-      });
-      await putWithProgress(slot.uploadUrl, file, slot.headers, (f) => update(key, { progress: f }));
-      update(key, { state: "checking", progress: 1 });
-      const [kind, value] = attach.split(":");
-      const photo = await apiJson<PhotoDto & { note?: string }>(`/api/inspections/${inspectionId}/photos/complete`, {
-        method: "POST",
-        body: {
-          fileId: slot.fileId,
-          caption: caption.trim() || null,
-          stationKey: kind === "station" ? value : null,
-          ringPosition: kind === "ring" ? Number(value) : null,
-        },
-      });
-      update(key, { state: "done", message: photo.note });
-      setCaption("");
+      const done = await sendPhoto(inspectionId, photo, (f) => update(key, { progress: f }), () => update(key, { state: "checking", progress: 1 }));
+      update(key, { state: "done", message: done.note });
       await mutate();
     } catch (err) {
-      const message =
-        err instanceof NetworkError
-          ? "No network: photos need a connection to upload. The readings are kept on this device; add the photo when you are back online."
-          : err instanceof ApiError || err instanceof Error
-            ? err.message
-            : "The upload failed.";
-      update(key, { state: "failed", message });
+      if (err instanceof Unreachable) await keep(photo, key);
+      else update(key, { state: "failed", message: err instanceof Error ? err.message : "The photo was not kept." });
     }
   }
 
@@ -99,7 +205,9 @@ export function PhotoPanel({ inspectionId, initial, profile, editable }: { inspe
       await apiJson(`/api/inspections/${inspectionId}/photos/${p.id}`, { method: "DELETE" });
       await mutate();
     } catch (err) {
-      window.alert(err instanceof Error ? err.message : "Could not remove the photo.");
+      window.alert(
+        err instanceof NetworkError ? "No network: the photo can be removed when you are back online." : err instanceof Error ? stripTechnical(err.message) : "Could not remove the photo.",
+      );
     }
   }
 
@@ -180,6 +288,40 @@ export function PhotoPanel({ inspectionId, initial, profile, editable }: { inspe
         </ul>
       ) : null}
 
+      {waiting.length ? (
+        <section aria-labelledby="photos-waiting" className="rounded-lg border-2 border-dashed border-ink-line p-3" data-testid="photos-waiting">
+          <h3 id="photos-waiting" className="font-semibold">
+            {waiting.length} photo{waiting.length === 1 ? "" : "s"} waiting for the network
+          </h3>
+          <p className="text-sm text-ink-soft">Kept on this device and uploaded, with the usual checks, as soon as the network is back. Signing out deletes them from this device.</p>
+          <ul className="mt-2 grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4">
+            {waiting.map((w) => (
+              <li key={w.key} className="overflow-hidden rounded-lg border border-ink-line bg-paper-raised">
+                {/* eslint-disable-next-line @next/next/no-img-element */}
+                <img src={w.url} alt={w.caption ?? `Photo waiting to upload: ${w.name}`} className="aspect-[4/3] w-full object-cover" />
+                <div className="p-2 text-sm">
+                  <p className="font-medium">{w.caption ?? <span className="text-ink-soft">No caption</span>}</p>
+                  <p className="text-ink-soft">
+                    ⏳ waiting · kept {new Date(w.keptAt).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}
+                  </p>
+                  <button
+                    type="button"
+                    className="mt-1 min-h-11 min-w-11 text-sm font-medium text-limit underline"
+                    onClick={async () => {
+                      if (!window.confirm(`Delete “${w.name}” from this device? It has not been uploaded.`)) return;
+                      await dropWaitingPhoto(w.key);
+                      await refreshWaiting();
+                    }}
+                  >
+                    Delete
+                  </button>
+                </div>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+
       {photos.length ? (
         <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4">
           {photos.map((p) => (
@@ -196,7 +338,7 @@ export function PhotoPanel({ inspectionId, initial, profile, editable }: { inspe
                 <p className="font-medium">{p.caption ?? <span className="text-ink-faint">No caption</span>}</p>
                 <p className="text-xs text-ink-faint">{attachLabel(p, profile)}</p>
                 {editable ? (
-                  <button type="button" className="mt-1 min-h-10 text-sm font-medium text-limit underline" onClick={() => remove(p)}>
+                  <button type="button" className="mt-1 min-h-11 min-w-11 text-sm font-medium text-limit underline" onClick={() => remove(p)}>
                     Remove
                   </button>
                 ) : null}

@@ -1,13 +1,15 @@
 "use client";
 
 import type { ContextProfile } from "@/lib/inspections/context";
-import { emptyRing, lengthText, parseDecimal, toMm, type RingEntry } from "@/lib/inspections/form";
+import { emptyRing, expectedIn, lengthText, parseDecimal, toMm, type RingEntry } from "@/lib/inspections/form";
 import { RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
-import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/schemas";
+import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/constants";
 import { normaliseClosedGap, type RingState } from "@/lib/rings/rings";
+import { checkRingValue, linerDiameterBounds, type Finding } from "@/lib/wear/plausibility";
 import { formatFixed, type LengthUnit } from "@/lib/units/length";
 import { cn } from "@/lib/utils";
 import { OverLimitMark, CautionMark, OkMark } from "./marks";
+import { ParsedEcho } from "./parsed-echo";
 
 const mm = (v: number) => formatFixed(v, 2);
 
@@ -57,6 +59,20 @@ function LengthInput({
 
 const notANumber = <p className="text-sm font-medium text-caution">⚠ Not a number — kept on this device, not saved.</p>;
 
+function Errors({ items }: { items: Finding[] }) {
+  if (!items.length) return null;
+  return (
+    <div role="alert" className="mt-1 text-sm font-medium text-limit">
+      {items.map((f) => (
+        <p key={f.message}>
+          <OverLimitMark />
+          {f.message} This cannot be confirmed.
+        </p>
+      ))}
+    </div>
+  );
+}
+
 export const ringInputId = (position: number, what: "gap" | "groove" | "linerd") => `ring-${position}-${what}`;
 
 /** Rings by position: closed gap (and where it was measured), groove clearance, renewed, condition — each against the profile. */
@@ -80,9 +96,15 @@ export function RingTable({
         const r = rings[spec.position] ?? emptyRing;
         // Typed in the ring's unit, judged in mm.
         const inMm = (v: number | null | "invalid") => (typeof v === "number" ? toMm(v, r.unit ?? "mm") : v);
-        const gap = inMm(parseDecimal(r.closedGap));
-        const groove = inMm(parseDecimal(r.groove));
-        const linerD = r.gapMeasuredIn === "liner_worn" ? inMm(parseDecimal(r.gapLinerDiameter ?? "")) : null;
+        const ru = r.unit ?? "mm";
+        const gap = inMm(parseDecimal(r.closedGap, expectedIn(spec.gapLimitMm, ru)));
+        const groove = inMm(parseDecimal(r.groove, expectedIn(spec.grooveLimitMm, ru)));
+        const linerD = r.gapMeasuredIn === "liner_worn" ? inMm(parseDecimal(r.gapLinerDiameter ?? "", expectedIn(profile.boreMm, ru))) : null;
+        const gapErrors = checkRingValue(typeof gap === "number" ? gap : null, { what: "closed gap", limitMm: spec.gapLimitMm });
+        const grooveErrors = checkRingValue(typeof groove === "number" ? groove : null, { what: "groove clearance", limitMm: spec.grooveLimitMm });
+        const bounds = linerDiameterBounds(profile);
+        const linerDOut = typeof linerD === "number" && (linerD < bounds.minMm || linerD > bounds.maxMm);
+        const placeMissing = typeof gap === "number" && !r.gapMeasuredIn;
         const unitText = unit === "mm" ? "mm" : "in";
         // A gap read in a worn part of the liner is judged as if in a gauge ring of nominal bore.
         const referred =
@@ -112,6 +134,10 @@ export function RingTable({
                   onKeyDown={(e) => focusNext(e, ringInputId(spec.position, "groove"))}
                 />
                 {gap === "invalid" ? notANumber : null}
+                {readOnly ? null : (
+                  <ParsedEcho text={r.closedGap} expected={expectedIn(spec.gapLimitMm, ru)} unit={ru} decimals={ru === "mm" ? 3 : 4} onChoose={(closedGap) => onChange(spec.position, { closedGap })} />
+                )}
+                <Errors items={gapErrors} />
                 {unit === "in" && typeof gap === "number" ? <p className="num text-sm text-ink-faint">= {gap.toFixed(3)} mm as read</p> : null}
                 <StateLine state={live.gap} newMin={spec.gapNewMinMm} newMax={spec.gapNewMaxMm} limit={spec.gapLimitMm} />
               </div>
@@ -129,12 +155,18 @@ export function RingTable({
                   onKeyDown={(e) => focusNext(e, next ? ringInputId(next.position, "gap") : null)}
                 />
                 {groove === "invalid" ? notANumber : null}
+                {readOnly ? null : (
+                  <ParsedEcho text={r.groove} expected={expectedIn(spec.grooveLimitMm, ru)} unit={ru} decimals={ru === "mm" ? 3 : 4} onChoose={(groove) => onChange(spec.position, { groove })} />
+                )}
+                <Errors items={grooveErrors} />
                 {unit === "in" && typeof groove === "number" ? <p className="num text-sm text-ink-faint">= {groove.toFixed(3)} mm</p> : null}
                 <StateLine state={live.groove} newMin={spec.grooveNewMinMm} newMax={spec.grooveNewMaxMm} limit={spec.grooveLimitMm} />
               </div>
             </div>
             <fieldset className="mt-3">
-              <legend className="text-sm font-medium text-ink-soft">Gap measured in</legend>
+              <legend className="text-sm font-medium text-ink-soft">
+                Gap measured in{typeof gap === "number" ? <span className="text-limit"> (required)</span> : null}
+              </legend>
               <div className="mt-1 grid grid-cols-3 gap-1">
                 {GAP_MEASURED_IN.map((m) => (
                   <label
@@ -157,6 +189,12 @@ export function RingTable({
                   </label>
                 ))}
               </div>
+              {placeMissing ? (
+                <p role="alert" className="mt-1 text-sm font-medium text-caution" data-testid={`ring-${spec.position}-place-missing`}>
+                  <CautionMark />
+                  Say where the gap was measured: the same gap means different wear in a gauge ring and in a worn liner.
+                </p>
+              ) : null}
               {r.gapMeasuredIn === "liner_worn" ? (
                 <div className="mt-2">
                   <label htmlFor={ringInputId(spec.position, "linerd")} className="block text-sm font-medium text-ink-soft">
@@ -171,6 +209,12 @@ export function RingTable({
                     placeholder={`e.g. ${lengthText(profile.boreMm + 1, unit)}`}
                     className="sm:w-1/2"
                   />
+                  {linerDOut ? (
+                    <p role="alert" className="mt-1 text-sm font-medium text-limit">
+                      <OverLimitMark />
+                      This liner reads between {bounds.minMm.toFixed(2)} and {bounds.maxMm.toFixed(2)} mm: retype the diameter. This cannot be confirmed.
+                    </p>
+                  ) : null}
                   <p className="mt-1 text-sm text-ink-soft">
                     {referred !== null && typeof gap === "number" && typeof linerD === "number" ? (
                       <>

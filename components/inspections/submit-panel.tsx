@@ -11,10 +11,13 @@ import type { InspectionDto } from "@/lib/inspections/schemas";
 export function SubmitPanel({
   inspectionId,
   problems,
+  cautions,
   canSubmit,
   blocked,
   flush,
   forget,
+  revision,
+  onConflict,
 }: {
   inspectionId: number;
   problems: Problem[];
@@ -23,6 +26,11 @@ export function SubmitPanel({
   blocked: boolean;
   flush: () => Promise<boolean>;
   forget: () => void;
+  /** Not blocking, but the chief should see them: confirmed warnings, ring and pressure cautions. */
+  cautions: Problem[];
+  /** The revision this device last saved: the submit names it, so a newer copy elsewhere is a conflict. */
+  revision: () => number;
+  onConflict: (server: InspectionDto | null, message: string) => void;
 }) {
   const router = useRouter();
   const [submitError, setSubmitError] = useState<Problem[] | string | null>(null);
@@ -37,14 +45,18 @@ export function SubmitPanel({
         setSubmitError("The latest changes are not on the server yet (see the status above). Nothing was submitted; your entries are kept.");
         return;
       }
-      const rev = (await apiJson<InspectionDto>(`/api/inspections/${inspectionId}`)).revision;
-      await apiJson(`/api/inspections/${inspectionId}/submit`, { method: "POST", body: { revision: rev } });
+      // The revision this device saved, never one fetched now: a copy saved meanwhile on
+      // another device must come back as a conflict, not be submitted unseen.
+      await apiJson(`/api/inspections/${inspectionId}/submit`, { method: "POST", body: { revision: revision() } });
       forget();
       router.push(`/inspections/${inspectionId}`);
       router.refresh();
     } catch (err) {
       if (err instanceof NetworkError) setSubmitError("No network: submit when you are back online. Everything is kept on this device.");
-      else if (err instanceof ApiError) setSubmitError(err.body.details?.problems ?? err.message);
+      else if (err instanceof ApiError && err.status === 409) {
+        onConflict((err.body.details?.server as InspectionDto | undefined) ?? null, err.message);
+        setSubmitError(`${err.message} Nothing was submitted; your entries are kept.`);
+      } else if (err instanceof ApiError) setSubmitError(err.body.details?.problems ?? err.message);
       else setSubmitError("Something went wrong; nothing was submitted.");
     } finally {
       setSubmitting(false);
@@ -58,8 +70,8 @@ export function SubmitPanel({
       </h2>
       {problems.length ? (
         <>
-          <p className="mt-1 text-sm text-ink-soft">Before the chief engineer can approve this record:</p>
-          <ul className="mt-2 space-y-1 text-sm">
+          <p className="mt-1 text-sm text-ink-soft">Before this record can be submitted:</p>
+          <ul className="mt-2 space-y-1 text-sm" data-testid="submit-problems">
             {problems.map((p) => (
               <li key={p.field + p.message} className="flex gap-2">
                 <span aria-hidden="true">○</span>
@@ -68,9 +80,29 @@ export function SubmitPanel({
             ))}
           </ul>
         </>
-      ) : (
-        <p className="mt-1 font-medium text-steady">✓ Complete: every reading, ring and checklist item is in.</p>
-      )}
+      ) : null}
+      {cautions.length ? (
+        <>
+          <p className="mt-3 text-sm text-ink-soft">
+            Open cautions ({cautions.length}): they do not stop the submission, and the chief engineer sees each one with the record.
+          </p>
+          <ul className="mt-2 space-y-1 text-sm" data-testid="submit-cautions">
+            {cautions.map((p) => (
+              <li key={p.field + p.message} className="flex gap-2 text-caution">
+                <span aria-hidden="true">⚠</span>
+                <span>{p.message}</span>
+              </li>
+            ))}
+          </ul>
+        </>
+      ) : null}
+      {!problems.length && !cautions.length ? (
+        <p className="mt-1 font-medium text-steady" data-testid="submit-complete">
+          ✓ Complete: every reading, ring and checklist item is in, with no open caution.
+        </p>
+      ) : !problems.length ? (
+        <p className="mt-3 font-medium">Ready to submit, with the cautions above.</p>
+      ) : null}
       {submitError ? (
         <div role="alert" className="mt-3 rounded-md border border-caution bg-caution-tint p-3 text-sm font-medium text-caution">
           {typeof submitError === "string" ? submitError : submitError.map((p) => <p key={p.message}>⚠ {p.message}</p>)}

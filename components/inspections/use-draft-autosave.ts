@@ -4,7 +4,10 @@ import { useCallback, useEffect, useRef, useState } from "react";
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import type { ContextProfile } from "@/lib/inspections/context";
 import { fromDraft, toDraft, type FormState } from "@/lib/inspections/form";
-import { describeIssues, inspectionDraftSchema, type InspectionDto } from "@/lib/inspections/schemas";
+import type { InspectionDto } from "@/lib/inspections/schemas";
+
+/** The validator (zod) loads after the sheet, not with it: the first save waits for it, once. */
+const loadSchemas = () => import("@/lib/inspections/schemas");
 
 /*
  * Keeps a draft safe: every change is written to this device at once (localStorage),
@@ -81,6 +84,15 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
       const { draft, invalid: bad } = toDraft(formRef.current, profile, fallbackRef.current);
       setInvalid(bad);
       // The same schema the server parses with: a refusal here means a bug, not a typo.
+      let schemas: Awaited<ReturnType<typeof loadSchemas>>;
+      try {
+        schemas = await loadSchemas();
+      } catch {
+        // The validator could not be fetched (no network before it ever loaded): the entries stay here.
+        setStatus({ kind: "offline" });
+        return false;
+      }
+      const { inspectionDraftSchema, describeIssues } = schemas;
       const parsed = inspectionDraftSchema.safeParse(draft);
       if (!parsed.success) {
         const d = describeIssues(parsed.error);
@@ -154,6 +166,12 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
   // if the server moved on meanwhile, that is a conflict for the engineer to settle. A page
   // opened with no network is this device's last copy of the page, which may be older than
   // what the device has saved since: then the device's copy, and its revision, stand.
+  // Fetch the validator as soon as the sheet is up, while there is surely a network, so the
+  // first save made offline finds it (the service worker keeps the chunk too).
+  useEffect(() => {
+    void loadSchemas().catch(() => undefined);
+  }, []);
+
   useEffect(() => {
     const local = readLocal(id);
     const newerHere = local !== null && local.baseRevision > initial.revision;
@@ -228,6 +246,13 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
     return !blocked.current;
   }, [save]);
 
+  /** A step other than saving (a submit) found the server's copy newer: settle it like a save conflict. */
+  const showConflict = useCallback((server: InspectionDto | null, message: string) => {
+    blocked.current = true;
+    setConflict(server);
+    setStatus({ kind: "conflict", message });
+  }, []);
+
   const forget = useCallback(() => {
     try {
       localStorage.removeItem(localKey(id));
@@ -236,5 +261,5 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
     }
   }, [id]);
 
-  return { form, setForm, status, conflict, resolveConflict, invalid, flush, forget, restored, revision: () => revisionRef.current };
+  return { form, setForm, status, conflict, resolveConflict, showConflict, invalid, flush, forget, restored, revision: () => revisionRef.current };
 }

@@ -1,7 +1,7 @@
 import { useMemo } from "react";
 import { toWearProfile, type InspectionContext } from "@/lib/inspections/context";
 import { toDraft, type FormState } from "@/lib/inspections/form";
-import { checkHours, readingWarnings, submissionProblems } from "@/lib/inspections/rules";
+import { checkHours, openCautions, readingChecks, submissionProblems } from "@/lib/inspections/rules";
 import type { InspectionDto } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 
@@ -18,8 +18,9 @@ export function useSheetAnalysis(form: FormState, initial: InspectionDto, ctx: I
     () => analyseGauging(wearProfile, toGauging(initial.id, draft.header, draft.readings), ctx.asFitted),
     [wearProfile, draft, initial.id, ctx.asFitted],
   );
-  const warnings = useMemo(() => readingWarnings(ctx, draft), [ctx, draft]);
+  const checks = useMemo(() => readingChecks(ctx, draft), [ctx, draft]);
   const hours = useMemo(() => checkHours(ctx, draft.header), [ctx, draft.header]);
   const problems = useMemo(() => submissionProblems(ctx, draft), [ctx, draft]);
-  return { draft, analysis, warnings, hours, problems };
+  const cautions = useMemo(() => openCautions(ctx, draft), [ctx, draft]);
+  return { draft, analysis, checks, hours, problems, cautions };
 }

@@ -27,7 +27,7 @@ export function AppShell({
               <Link
                 key={item.href}
                 href={item.href}
-                className="min-h-10 rounded-md px-3 py-2 text-sm font-medium text-paper/85 hover:bg-white/10 hover:text-paper"
+                className="inline-flex min-h-11 items-center rounded-md px-3 py-2 text-sm font-medium text-paper/85 hover:bg-white/10 hover:text-paper"
               >
                 {item.label}
               </Link>
@@ -42,7 +42,8 @@ export function AppShell({
           </div>
         </div>
       </header>
-      <OfflineSupport />
+      {/* The render time travels with the page, so a copy kept for use offline says when it was taken. */}
+      <OfflineSupport renderedAt={new Date().toISOString()} />
       <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-6 sm:px-6">{children}</main>
       {/* On paper, say where and when the page came from, so a filed copy is never taken for the live record. */}
       <footer className="mx-auto hidden w-full max-w-7xl px-4 pb-4 text-xs text-ink-soft sm:px-6 print:block">

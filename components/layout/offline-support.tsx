@@ -29,8 +29,26 @@ function keepThisPage(registration: ServiceWorkerRegistration, pathname: string,
  * without a network, and says so plainly when the network is gone. Production builds only: in
  * development a cached page would hide the code being changed.
  */
-export function OfflineSupport() {
+/** A page older than this when shown was not just loaded from the server: a kept copy, or one restored from history. */
+const STALE_AFTER_MS = 5 * 60_000;
+
+/** "13:20 on 2 Dec (45 min ago)": when the records on screen were taken, in the device's time. */
+export function describeCopyTime(at: Date, now: Date): string {
+  const clock = at.toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" });
+  const date = at.toLocaleDateString("en-GB", { day: "numeric", month: "short", year: at.getFullYear() === now.getFullYear() ? undefined : "numeric" });
+  const mins = Math.max(0, Math.round((now.getTime() - at.getTime()) / 60_000));
+  const ago = mins < 1 ? "just now" : mins < 60 ? `${mins} min ago` : mins < 48 * 60 ? `${Math.round(mins / 60)} h ago` : `${Math.round(mins / 1440)} days ago`;
+  return `${clock} on ${date} (${ago})`;
+}
+
+export function OfflineSupport({ renderedAt }: { renderedAt?: string }) {
   const [online, setOnline] = useState(true);
+  // When what is on screen came from the server: the render time for the document first
+  // shown (a kept copy carries the time it was kept), then the time of each in-app move,
+  // which fetched its page afresh.
+  const [shownAt, setShownAt] = useState<Date | null>(renderedAt ? new Date(renderedAt) : null);
+  const [now, setNow] = useState<Date | null>(null);
+  const firstPath = useRef(true);
 
   useEffect(() => {
     const update = () => setOnline(navigator.onLine);
@@ -70,16 +88,52 @@ export function OfflineSupport() {
   }, []);
 
   useEffect(() => {
+    if (firstPath.current) {
+      firstPath.current = false;
+      return;
+    }
+    if (navigator.onLine) setShownAt(new Date());
+  }, [pathname]);
+
+  useEffect(() => {
+    const tick = () => setNow(new Date());
+    tick();
+    const t = window.setInterval(tick, 60_000);
+    return () => window.clearInterval(t);
+  }, []);
+
+  useEffect(() => {
     if (!registration) return;
     keepThisPage(registration, pathname, loadedByWorker.current);
     loadedByWorker.current = null;
   }, [registration, pathname]);
 
-  if (online) return null;
+  const taken = shownAt && now ? describeCopyTime(shownAt, now) : null;
+  const stale = !!(shownAt && now && now.getTime() - shownAt.getTime() > STALE_AFTER_MS);
+  if (online && !stale) return null;
+  if (online) {
+    return (
+      <div role="status" data-testid="page-time" className="no-print flex flex-wrap items-center justify-center gap-x-3 border-b border-ink-line bg-paper-sunk px-4 py-1 text-center text-sm text-ink">
+        <span>
+          This page shows the records as they stood at <strong className="num font-semibold">{taken}</strong>.
+        </span>
+        <button type="button" className="min-h-11 min-w-11 rounded-md px-3 font-medium text-signal underline" onClick={() => location.reload()}>
+          Reload
+        </button>
+      </div>
+    );
+  }
   return (
-    <div role="status" className="no-print border-b border-ink-line bg-paper-sunk px-4 py-2 text-center text-sm text-ink">
-      <strong className="font-semibold">No network.</strong> Pages opened before on this device still open; what you type on a
-      gauging sheet is kept here and saved when the network is back.
+    <div role="status" data-testid="page-time" className="no-print border-b border-ink-line bg-paper-sunk px-4 py-2 text-center text-sm text-ink">
+      <strong className="font-semibold">No network.</strong>{" "}
+      {taken ? (
+        <>
+          This page is the copy kept on this device at <strong className="num font-semibold">{taken}</strong>; drafts and records may have changed since.{" "}
+        </>
+      ) : (
+        "Pages opened before on this device still open. "
+      )}
+      What you type on a gauging sheet is kept here and saved when the network is back.
     </div>
   );
 }

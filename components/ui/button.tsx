@@ -14,7 +14,7 @@ export function buttonClass(variant: Variant = "primary", size: "md" | "lg" = "m
   return cn(
     "inline-flex items-center justify-center gap-2 rounded-md border font-medium transition-colors",
     "disabled:cursor-not-allowed disabled:opacity-50 print:hidden",
-    size === "lg" ? "min-h-12 px-5 text-base" : "min-h-10 px-4 text-sm",
+    size === "lg" ? "min-h-12 px-5 text-base" : "min-h-11 min-w-11 px-4 text-sm",
     variants[variant],
   );
 }

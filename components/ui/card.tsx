@@ -16,7 +16,8 @@ export function PageHeader({
   return (
     <header className="mb-6 flex flex-wrap items-end justify-between gap-4 border-b border-ink-line pb-4">
       <div className="min-w-0">
-        {eyebrow ? <div className="mb-1 text-sm text-ink-faint">{eyebrow}</div> : null}
+        {/* Breadcrumb links are tapped with a gloved finger: each gets a 44 px target. */}
+        {eyebrow ? <div className="mb-1 text-sm text-ink-soft [&_a]:inline-flex [&_a]:min-h-11 [&_a]:min-w-11 [&_a]:items-center">{eyebrow}</div> : null}
         <h1 className="text-2xl font-semibold sm:text-3xl">{title}</h1>
       </div>
       {children ? <div className="flex flex-wrap items-center gap-2">{children}</div> : null}

@@ -39,3 +39,20 @@ export function Hint({ id, children }: { id?: string; children: React.ReactNode 
     </p>
   );
 }
+
+/**
+ * Enter in a one-line field moves to the next field of the form instead of submitting it
+ * (a half-filled header sent by a reflex Enter is a draft with gaps). Put on the <form> as
+ * onKeyDown; the submit button, text areas and selects keep their own Enter.
+ */
+export function enterMovesToNextField(e: React.KeyboardEvent<HTMLFormElement>) {
+  const el = e.target as HTMLElement;
+  if (e.key !== "Enter" || e.shiftKey || e.altKey || e.ctrlKey || e.metaKey || e.nativeEvent.isComposing) return;
+  if (!(el instanceof HTMLInputElement) || ["submit", "button", "checkbox", "radio", "file", "reset"].includes(el.type)) return;
+  e.preventDefault();
+  const fields = [...e.currentTarget.querySelectorAll<HTMLElement>("input, select, textarea, button")].filter(
+    (f) => !(f as HTMLInputElement).disabled && f.tabIndex >= 0 && (f as HTMLInputElement).type !== "hidden" && f.offsetParent !== null,
+  );
+  const next = fields[fields.indexOf(el) + 1];
+  next?.focus();
+}

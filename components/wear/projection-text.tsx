@@ -1,6 +1,6 @@
 import { BandIcon } from "@/components/wear/band-badge";
 import type { ProjectionSummary } from "@/lib/analysis/compute";
-import { day, fixed, hours, monthYear } from "@/lib/format";
+import { day, fixed, hours, monthYear, rateText } from "@/lib/format";
 
 /**
  * Liner lives of up to about 90 000 h are quoted for modern engines (makers' published
@@ -18,7 +18,7 @@ export function ProjectionText({ what, projection: p, limitMm }: { what: string;
         </>
       );
     case "not_wearing":
-      return <>{what}: no rising trend ({fixed(p.slopeMmPer1000h, 3)} mm/1000 h), so no date to the limit.</>;
+      return <>{what}: no rising trend ({rateText(p.slopeMmPer1000h)}), so no date to the limit.</>;
     case "already_over":
       return (
         <strong className="inline-flex items-center gap-1 text-limit">
@@ -37,7 +37,7 @@ export function ProjectionText({ what, projection: p, limitMm }: { what: string;
       }
       return (
         <>
-          {what} reaches the {fixed(limitMm)} mm limit at about <span className="num font-semibold text-ink">{hours(p.atLinerHours)} liner h</span>
+          {what} reaches the {fixed(limitMm)} mm limit at about <span className="num font-semibold text-ink">{hours(p.atLinerHours)} h</span> on the liner
           {d?.kind === "dated" ? (
             <>
               , around <span className="num font-semibold text-ink">{monthYear(d.date)}</span> (95 %: {d.lower ? day(d.lower) : "open"} – {d.upper ? day(d.upper) : "open"})

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
 import { parseImoNumber } from "@/lib/units/imo";
+import { recordDate } from "@/lib/validation/dates";
 
 /*
  * Admin forms: one schema per form, used by the browser (react-hook-form + zodResolver)
@@ -118,7 +119,7 @@ export const engineSchema = z.object({
     (n) => Number.isInteger(n) && n >= MIN_CYLINDERS && n <= MAX_CYLINDERS,
     `A two-stroke main engine has ${MIN_CYLINDERS} to ${MAX_CYLINDERS} cylinders.`,
   ),
-  commissionedOn: z.preprocess(blankToNull, z.iso.date("Enter a date, or leave it empty.").nullable()),
+  commissionedOn: z.preprocess(blankToNull, recordDate("commissioning date").nullable()),
 });
 export type EngineInput = z.input<typeof engineSchema>;
 

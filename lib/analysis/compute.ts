@@ -1,7 +1,9 @@
 import { analyseRings, type RingAnalysis, type RingInspection, type RingPositionSpec } from "@/lib/rings/rings";
 import { runningHoursPerDay, projectDate, type DateProjection, type RunningHoursEntry, type RunningRate } from "@/lib/wear/calendar";
 import { unitBand, type UnitBand } from "@/lib/wear/bands";
-import { analyseLiner, type LinerAnalysis, type Projection } from "@/lib/wear/liner";
+import { analyseLiner, type LinerAnalysis, type LinerIssue, type Projection } from "@/lib/wear/liner";
+import type { CellResult } from "@/lib/wear/inspection";
+import type { PredictionFit } from "@/lib/stats/regression";
 import type { Inspection, LinerReading, WearProfile } from "@/lib/wear/types";
 
 /** Everything the analysis of one unit needs, as loaded from the database. */
@@ -45,6 +47,83 @@ export type UnitSummary = {
 };
 
 export type UnitAnalysis = { summary: UnitSummary; liner: LinerAnalysis; rings: RingAnalysis | null };
+
+/** A point of the stored wear trend. */
+export type TrendPointDetail = {
+  inspectionId: string;
+  date: string;
+  linerHours: number;
+  engineHours: number;
+  maxWearMm: number | null;
+  maxOvalityMm: number | null;
+  steady: boolean;
+  wearOutlier: boolean;
+  /** The largest reading was judged impossible and left out; the point shows the next-largest. */
+  maxWearExcluded: boolean;
+  excluded: { stationKey: string; axisKey: string; correctedMm: number }[];
+};
+
+/**
+ * What the unit screen and its API draw beyond the summary, stored beside it in
+ * unit_analysis.detail: the trend's points and fit, the liner profile of each gauging (the
+ * larger usable wear of the two directions per station), the latest gauging's cells, the rings.
+ */
+export type UnitDetail = {
+  points: TrendPointDetail[];
+  fit: PredictionFit | null;
+  profileSeries: { inspectionId: string; date: string; stations: { stationKey: string; wearMm: number }[] }[];
+  latest: {
+    inspectionId: string;
+    date: string;
+    cells: Pick<CellResult, "stationKey" | "axisKey" | "rawMm" | "correctedMm" | "wearMm" | "usable">[];
+    ovality: { stationKey: string; ovalityMm: number | null }[];
+  } | null;
+  rings: RingAnalysis | null;
+  linerIssues: LinerIssue[];
+};
+
+/** The stored detail of a computed unit analysis. */
+export function unitDetail(analysis: UnitAnalysis): UnitDetail {
+  const { liner } = analysis;
+  const fit = liner.wear.trend?.fit ?? null;
+  const dateOf = new Map(liner.points.map((p) => [p.inspectionId, p.date]));
+  const last = liner.inspections.at(-1);
+  return {
+    points: liner.points.map((p) => ({
+      inspectionId: p.inspectionId,
+      date: p.date,
+      linerHours: p.linerHours,
+      engineHours: p.engineHours,
+      maxWearMm: p.maxWearMm,
+      maxOvalityMm: p.maxOvalityMm,
+      steady: p.steady,
+      wearOutlier: p.wearOutlier,
+      maxWearExcluded: p.maxWearExcluded,
+      excluded: p.excludedReadings.map((e) => ({ stationKey: e.stationKey, axisKey: e.axisKey, correctedMm: e.correctedMm })),
+    })),
+    fit: fit
+      ? { model: fit.model, n: fit.n, df: fit.df, intercept: fit.intercept, slope: fit.slope, mse: fit.mse, xMean: fit.xMean, sxx: fit.sxx, sumX2: fit.sumX2 }
+      : null,
+    profileSeries: liner.inspections
+      .filter((ia) => dateOf.has(ia.inspectionId))
+      .map((ia) => {
+        const worst = new Map<string, number>();
+        for (const c of ia.cells) if (c.usable && !(c.wearMm <= (worst.get(c.stationKey) ?? -Infinity))) worst.set(c.stationKey, c.wearMm);
+        return { inspectionId: ia.inspectionId, date: dateOf.get(ia.inspectionId)!, stations: [...worst].map(([stationKey, wearMm]) => ({ stationKey, wearMm })) };
+      }),
+    latest:
+      last && dateOf.has(last.inspectionId)
+        ? {
+            inspectionId: last.inspectionId,
+            date: dateOf.get(last.inspectionId)!,
+            cells: last.cells.map((c) => ({ stationKey: c.stationKey, axisKey: c.axisKey, rawMm: c.rawMm, correctedMm: c.correctedMm, wearMm: c.wearMm, usable: c.usable })),
+            ovality: last.ovality.map((o) => ({ stationKey: o.stationKey, ovalityMm: o.ovalityMm })),
+          }
+        : null,
+    rings: analysis.rings,
+    linerIssues: liner.issues,
+  };
+}
 
 function withDates(p: Projection, latest: { linerHours: number; date: string } | null, rate: RunningRate): ProjectionSummary {
   if (p.kind !== "projected" || !latest) return { ...p, dates: null };

@@ -1,8 +1,9 @@
 import type { Knex } from "knex";
-import type { RingInspection } from "@/lib/rings/rings";
+import { gapLinerIncrease, type RingInspection } from "@/lib/rings/rings";
+import { temperatureCorrection } from "@/lib/wear/correction";
 import type { RunningHoursEntry } from "@/lib/wear/calendar";
-import type { ContextProfile } from "@/lib/inspections/context";
-import type { Inspection, StationRole, WearProfile } from "@/lib/wear/types";
+import type { Inspection } from "@/lib/wear/types";
+import { loadProfiles, type ProfileRow } from "@/lib/profiles/queries";
 import { asFittedGauging, correctedAsFittedReadings } from "@/lib/wear/as-fitted";
 import type { UnitInput } from "./compute";
 import { toGauging } from "./input";
@@ -13,80 +14,19 @@ import { toGauging } from "./input";
  * They read only approved inspections: the analysis is of the record, not of drafts.
  */
 
-/** An engine profile as both the analysis and the entry form use it. */
-export type ProfileRow = WearProfile & ContextProfile & { overhaulIntervalHours: number };
-
-/** Every engine profile with its stations and rings (a handful of rows). */
-export async function loadProfiles(db: Knex | Knex.Transaction, ids?: number[]): Promise<Map<number, ProfileRow>> {
-  const pq = db("engine_profiles").select(
-    "id",
-    "name",
-    "designation",
-    "bore_mm",
-    "liner_wear_limit_mm",
-    "ovality_limit_mm",
-    "wear_reference",
-    "temperature_correction",
-    "alpha_liner_per_k",
-    "alpha_gauge_per_k",
-    "running_in_hours",
-    "min_points_for_projection",
-    "axis_a_key",
-    "axis_a_label",
-    "axis_b_key",
-    "axis_b_label",
-    "overhaul_interval_hours",
-    "rod_nut_pressure_bar",
-  );
-  if (ids) pq.whereIn("id", ids);
-  const profiles = await pq;
-  const pids = profiles.map((p) => p.id);
-  const [stations, rings] = await Promise.all([
-    db("profile_stations").whereIn("profile_id", pids).orderBy(["profile_id", "position"]).select("id", "profile_id", "station_key", "label", "depth_mm", "role"),
-    db("profile_rings")
-      .whereIn("profile_id", pids)
-      .orderBy(["profile_id", "position"])
-      .select("profile_id", "position", "label", "gap_new_min_mm", "gap_new_max_mm", "gap_limit_mm", "groove_new_min_mm", "groove_new_max_mm", "groove_limit_mm"),
-  ]);
-  const out = new Map<number, ProfileRow>();
-  for (const p of profiles) {
-    out.set(p.id, {
-      id: p.id,
-      name: p.name,
-      designation: p.designation,
-      boreMm: Number(p.bore_mm),
-      linerWearLimitMm: Number(p.liner_wear_limit_mm),
-      ovalityLimitMm: Number(p.ovality_limit_mm),
-      wearReference: p.wear_reference,
-      temperatureCorrection: !!p.temperature_correction,
-      alphaLinerPerK: Number(p.alpha_liner_per_k),
-      alphaGaugePerK: Number(p.alpha_gauge_per_k),
-      runningInHours: Number(p.running_in_hours),
-      minPointsForProjection: Number(p.min_points_for_projection),
-      overhaulIntervalHours: Number(p.overhaul_interval_hours),
-      rodNutPressureBar: p.rod_nut_pressure_bar === null ? null : Number(p.rod_nut_pressure_bar),
-      axes: [
-        { key: p.axis_a_key, label: p.axis_a_label },
-        { key: p.axis_b_key, label: p.axis_b_label },
-      ],
-      stations: stations
-        .filter((s) => s.profile_id === p.id)
-        .map((s) => ({ id: s.id, key: s.station_key, label: s.label, depthMm: Number(s.depth_mm), role: s.role as StationRole })),
-      rings: rings
-        .filter((r) => r.profile_id === p.id)
-        .map((r) => ({
-          position: r.position,
-          label: r.label,
-          gapNewMinMm: Number(r.gap_new_min_mm),
-          gapNewMaxMm: Number(r.gap_new_max_mm),
-          gapLimitMm: Number(r.gap_limit_mm),
-          grooveNewMinMm: Number(r.groove_new_min_mm),
-          grooveNewMaxMm: Number(r.groove_new_max_mm),
-          grooveLimitMm: Number(r.groove_limit_mm),
-        })),
-    });
-  }
-  return out;
+/**
+ * The liner diameter increase where a gap was read in a worn part, referred to 20 °C with the
+ * inspection's temperatures like its bore readings; a refused (under-nominal) diameter is passed
+ * on as the negative figure, so the ring analysis reports it and uses the gap as measured.
+ */
+function increaseOf(
+  profile: ProfileRow,
+  i: { gauge_temp_c: unknown; liner_temp_c: unknown },
+  diameterMm: number,
+): number | null {
+  const { factor } = temperatureCorrection(profile, i.gauge_temp_c == null ? null : Number(i.gauge_temp_c), i.liner_temp_c == null ? null : Number(i.liner_temp_c));
+  const inc = gapLinerIncrease(profile.boreMm, diameterMm, factor);
+  return inc.kind === "ok" ? inc.increaseMm : inc.kind === "invalid" ? diameterMm * factor - profile.boreMm : null;
 }
 
 export type LoadedEngineUnits = { units: UnitInput[]; profiles: Map<number, ProfileRow> };
@@ -204,7 +144,7 @@ export async function loadUnitInputs(
           position: r.position,
           closedGapMm: r.closedGapMm,
           gapMeasuredIn: r.gapMeasuredIn,
-          linerDiameterIncreaseMm: r.gapLinerDiameterMm === null ? null : r.gapLinerDiameterMm - profile.boreMm,
+          linerDiameterIncreaseMm: r.gapLinerDiameterMm === null ? null : increaseOf(profile, i, r.gapLinerDiameterMm),
           grooveClearanceMm: r.grooveClearanceMm,
           renewed: r.renewed,
         })),

@@ -3,51 +3,39 @@ import { db } from "@/lib/db/knex";
 import type { CurrentUser } from "@/lib/auth/session";
 import { getEngine, getUnitContext } from "@/lib/fleet/queries";
 import { listInspections, listLiners } from "@/lib/history/queries";
-import { computeUnitAnalysis, type UnitSummary } from "./compute";
-import { loadUnitInputs, type ProfileRow } from "./load";
-import type { LinearFit } from "@/lib/stats/regression";
-import type { LinerPoint } from "@/lib/wear/liner";
-
-export type ProfileDepthSeries = {
-  inspectionId: string;
-  date: string;
-  linerHours: number;
-  cells: { stationKey: string; depthMm: number; axisKey: string; wearMm: number; rawMm: number; correctedMm: number; usable: boolean }[];
-  ovality: { stationKey: string; depthMm: number; ovalityMm: number | null }[];
-};
+import { loadProfiles, type ProfileRow } from "@/lib/profiles/queries";
+import type { UnitDetail, UnitSummary } from "./compute";
+import { recomputeUnits } from "./recompute";
 
 export type UnitPageData = NonNullable<Awaited<ReturnType<typeof getUnitAnalysis>>>;
 
+type StoredRow = { summary: unknown; detail: unknown; computed_at: Date | string };
+const parsed = <T>(v: unknown): T => (typeof v === "string" ? JSON.parse(v) : v) as T;
+
+async function readStored(unitId: number): Promise<StoredRow | undefined> {
+  return db("unit_analysis").where({ unit_id: unitId }).first("summary", "detail", "computed_at");
+}
+
 /**
- * The full analysis of one unit for its history screen and the JSON API: context,
- * liners, inspections, per-inspection wear by station, the trend with its fit, the
- * projections with dates, the rings and the band. Null when the unit is outside the
- * user's vessels (callers answer 404 so no one learns which ids exist).
+ * The analysis of one unit for its history screen and the JSON API, read from the stored
+ * row in unit_analysis (kept current whenever an inspection, liner, profile or the hours log
+ * changes), with the context, liners and inspections. A unit with no stored detail yet (a
+ * row written before the detail was kept) is computed and stored once, in a transaction.
+ * Null when the unit is outside the user's vessels (callers answer 404 so no one learns
+ * which ids exist).
  */
 export async function getUnitAnalysis(user: CurrentUser, unitId: number) {
   const ctx = await getUnitContext(user, unitId);
   if (!ctx) return null;
-  const [{ units, profiles }, liners, inspections] = await Promise.all([
-    loadUnitInputs(db, { unitIds: [unitId] }),
-    listLiners(unitId),
-    listInspections(unitId),
-  ]);
-  const input = units[0];
+  let row = await readStored(unitId);
+  if (!row?.detail) {
+    await db.transaction((trx) => recomputeUnits(trx, { unitIds: [unitId] }));
+    row = await readStored(unitId);
+  }
+  const [profiles, liners, inspections] = await Promise.all([loadProfiles(db, [ctx.profileId]), listLiners(unitId), listInspections(unitId)]);
   const profile = profiles.get(ctx.profileId) as ProfileRow;
-  const analysis = computeUnitAnalysis(input);
-  const depthOf = new Map(profile.stations.map((s) => [s.key, s.depthMm]));
-  const series: ProfileDepthSeries[] = analysis.liner.inspections.map((ia) => {
-    const point = analysis.liner.points.find((p) => p.inspectionId === ia.inspectionId);
-    const insp = input.inspections.find((i) => i.id === ia.inspectionId)!;
-    return {
-      inspectionId: ia.inspectionId,
-      date: insp.date,
-      linerHours: point?.linerHours ?? insp.linerHours,
-      cells: ia.cells.map((c) => ({ ...c, depthMm: depthOf.get(c.stationKey) ?? 0 })),
-      ovality: ia.ovality,
-    };
-  });
-  const fit: LinearFit | null = analysis.liner.wear.trend?.fit ?? null;
+  const summary = parsed<UnitSummary>(row!.summary);
+  const detail = parsed<UnitDetail>(row!.detail);
   return {
     context: ctx,
     profile: {
@@ -64,12 +52,14 @@ export async function getUnitAnalysis(user: CurrentUser, unitId: number) {
     },
     liners,
     inspections,
-    summary: analysis.summary as UnitSummary,
-    points: analysis.liner.points as LinerPoint[],
-    fit: fit ? { ...fit, residuals: [], standardizedResiduals: [] } : null,
-    series,
-    rings: analysis.rings,
-    linerIssues: analysis.liner.issues,
+    summary,
+    points: detail.points,
+    fit: detail.fit,
+    profileSeries: detail.profileSeries,
+    latest: detail.latest,
+    rings: detail.rings,
+    linerIssues: detail.linerIssues,
+    computedAt: new Date(row!.computed_at).toISOString(),
   };
 }
 

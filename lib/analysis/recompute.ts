@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
-import { computeUnitAnalysis, earliestLimit, type UnitInput } from "./compute";
-import { loadProfiles, loadUnitInputs, type ProfileRow } from "./load";
+import { computeUnitAnalysis, earliestLimit, unitDetail, type UnitInput } from "./compute";
+import { loadProfiles, type ProfileRow } from "@/lib/profiles/queries";
+import { loadUnitInputs } from "./load";
 
 /*
  * Keeps `unit_analysis` current. Every mutation that changes an approved inspection, a
@@ -11,7 +12,8 @@ import { loadProfiles, loadUnitInputs, type ProfileRow } from "./load";
 type NextOverhaulChange = { unitId: number; engineHours: number | null };
 
 function toRow(input: UnitInput, changes?: NextOverhaulChange[]) {
-  const { summary } = computeUnitAnalysis(input);
+  const analysis = computeUnitAnalysis(input);
+  const { summary } = analysis;
   const next = summary.nextOverhaulEngineHours;
   const stored = input.nextOverhaulEngineHours;
   if (changes && (next === null ? stored !== null : stored === null || Math.abs(next - stored) >= 0.05)) {
@@ -33,6 +35,7 @@ function toRow(input: UnitInput, changes?: NextOverhaulChange[]) {
     limit_on_latest: limit?.latest ?? null,
     last_inspected_on: summary.lastInspectedOn,
     summary: JSON.stringify(roundForStorage(summary)),
+    detail: JSON.stringify(roundForStorage(unitDetail(analysis))),
     computed_at: new Date(),
   };
 }
@@ -81,6 +84,7 @@ async function upsert(db: Knex | Knex.Transaction, rows: ReturnType<typeof toRow
         "limit_on_latest",
         "last_inspected_on",
         "summary",
+        "detail",
         "computed_at",
       ]);
   }

@@ -14,8 +14,9 @@ export const PERMISSIONS = {
   "inspection.create": ["chief_engineer", "engineer"],
   "inspection.editDraft": ["chief_engineer", "engineer"],
   "inspection.submit": ["chief_engineer", "engineer"],
-  "inspection.approve": ["chief_engineer"],
-  "inspection.return": ["chief_engineer"],
+  /** Never a record one entered or submitted oneself: lib/inspections/approval.ts. */
+  "inspection.approve": ["superintendent", "chief_engineer"],
+  "inspection.return": ["superintendent", "chief_engineer"],
   "inspection.amend": ["chief_engineer"],
   "photo.upload": ["chief_engineer", "engineer"],
   "hoursLog.write": ["chief_engineer"],

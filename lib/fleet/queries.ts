@@ -286,3 +286,17 @@ export async function getUnitContext(user: CurrentUser, unitId: number) {
     vesselName: string;
   };
 }
+
+/** The stored wear rate of every unit on the user's vessels, for the fleet's spread of rates. */
+export async function listFleetWearRates(user: CurrentUser): Promise<(number | null)[]> {
+  const rows = await scopeVessels(
+    db("unit_analysis as a")
+      .join("cylinder_units as u", "u.id", "a.unit_id")
+      .join("main_engines as e", "e.id", "u.engine_id")
+      .join("vessels as v", "v.id", "e.vessel_id")
+      .whereNull("v.archived_at")
+      .select("a.wear_rate_mm_per_1000h as rate"),
+    user,
+  );
+  return rows.map((r: { rate: unknown }) => num(r.rate));
+}

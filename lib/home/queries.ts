@@ -41,15 +41,51 @@ function inspectionBase(user: CurrentUser) {
 
 const toIso = (d: unknown) => (d ? new Date(d as string).toISOString() : null);
 
-/** Records submitted for approval on the user's vessels, oldest first (the chief's queue). */
-export async function listAwaitingApproval(user: CurrentUser, limit = 50): Promise<HomeInspectionRow[]> {
-  const rows = await inspectionBase(user)
-    .leftJoin("user as s", "s.id", "i.submitted_by")
-    .where("i.state", "submitted")
+function submittedRows(user: CurrentUser, limit: number, narrow: (q: Knex.QueryBuilder) => void): Promise<HomeInspectionRow[]> {
+  const q = inspectionBase(user).leftJoin("user as s", "s.id", "i.submitted_by").where("i.state", "submitted");
+  narrow(q);
+  return q
     .orderBy("i.submitted_at", "asc")
     .limit(limit)
-    .select([...inspectionColumns, "s.name as byName", "i.submitted_at as at"]);
-  return rows.map((r: HomeInspectionRow) => ({ ...r, at: toIso(r.at) }));
+    .select([...inspectionColumns, "s.name as byName", "i.submitted_at as at"])
+    .then((rows: HomeInspectionRow[]) => rows.map((r) => ({ ...r, at: toIso(r.at) })));
+}
+
+/** Neither entered nor submitted by `userId` (lib/inspections/approval.ts says why). */
+const notTheirOwn = (q: Knex.QueryBuilder, userId: string) =>
+  q.whereNot("i.created_by", userId).where((w) => w.whereNull("i.submitted_by").orWhereNot("i.submitted_by", userId));
+
+/**
+ * Records submitted on the chief's vessels that he may approve, oldest first: not the
+ * ones he entered or submitted himself.
+ */
+export async function listAwaitingApproval(user: CurrentUser, limit = 50): Promise<HomeInspectionRow[]> {
+  return submittedRows(user, limit, (q) => notTheirOwn(q, user.id));
+}
+
+/** The chief's own submitted records: waiting for another chief of the vessel or the superintendent. */
+export async function listAwaitingSomeoneElse(user: CurrentUser, limit = 50): Promise<HomeInspectionRow[]> {
+  return submittedRows(user, limit, (q) => q.where((w) => w.where("i.created_by", user.id).orWhere("i.submitted_by", user.id)));
+}
+
+/**
+ * The superintendent's queue: records on his vessels that no chief engineer assigned to
+ * the vessel may approve, because every one of them entered or submitted it (typically a
+ * chief who gauged and submitted himself).
+ */
+export async function listAwaitingSuperintendent(user: CurrentUser, limit = 50): Promise<HomeInspectionRow[]> {
+  return submittedRows(user, limit, (q) => {
+    notTheirOwn(q, user.id).whereNotExists(
+      db("user_vessels as uv")
+        .join("user as c", "c.id", "uv.user_id")
+        .whereRaw("uv.vessel_id = e.vessel_id")
+        .where("c.role", "chief_engineer")
+        .where((w) => w.whereNull("c.banned").orWhere("c.banned", false))
+        .whereRaw("c.id <> i.created_by")
+        .whereRaw("(i.submitted_by IS NULL OR c.id <> i.submitted_by)")
+        .select(db.raw("1")),
+    );
+  });
 }
 
 /** The user's own drafts and returned records, newest change first. */

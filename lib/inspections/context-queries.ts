@@ -1,6 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
-import { loadProfiles } from "@/lib/analysis/load";
+import { loadProfiles } from "@/lib/profiles/queries";
 import type { ContextProfile, InspectionContext, PreviousInspection } from "./context";
 import { num } from "./row-values";
 

@@ -38,6 +38,8 @@ export type ContextProfile = {
   stations: ContextStation[];
   rings: ContextRing[];
   rodNutPressureBar: number | null;
+  /** How far (in %) the rod nut pressure may be off the figure above before submission is blocked; null: the default ±10 %. */
+  rodNutTolerancePct?: number | null;
 };
 
 export type ContextLiner = {

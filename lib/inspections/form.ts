@@ -1,8 +1,9 @@
 import { MM_PER_INCH, type LengthUnit } from "@/lib/units/length";
+import { parseNumberInput } from "@/lib/units/parse-number";
 import type { ContextProfile } from "./context";
 import { cellKey } from "./context";
 import type { InspectionDraft, InspectionHeader, RingReadingInput } from "./schemas";
-import { emptyChecklist } from "./schemas";
+import { emptyChecklist } from "./constants";
 
 /*
  * The entry form keeps what was typed as text, exactly, so a half-typed or mistyped
@@ -23,7 +24,7 @@ export type RingEntry = {
   condition: string;
 };
 /** A ring not yet touched on the sheet. */
-export const emptyRing: RingEntry = { closedGap: "", gapMeasuredIn: "gauge_ring", groove: "", renewed: false, condition: "" };
+export const emptyRing: RingEntry = { closedGap: "", gapMeasuredIn: null, groove: "", renewed: false, condition: "" };
 
 export type TallyEntry = { key: string; label: string; countIn: string; countOut: string };
 
@@ -55,16 +56,50 @@ export type FormState = {
 };
 
 /**
- * A number as typed on a tablet: a comma or a point for the decimal, spaces ignored.
- * Null for an empty field; "invalid" for anything else that is not a plain number.
+ * A number as typed on a tablet (see `parseNumberInput`): a comma or a point for the decimal,
+ * spaces between thousands. `expected` is about how large the field's values are, which
+ * settles "1,250"; when nothing settles it the value is "invalid" here (kept on the device,
+ * not saved) and the sheet asks. Null for an empty field.
  */
-export function parseDecimal(text: string): number | null | "invalid" {
-  const t = text.replace(/[\s\u2009]/g, "").replace(",", ".");
-  if (t === "") return null;
-  if (!/^[+-]?(\d+\.?\d*|\.\d+)$/.test(t)) return "invalid";
-  const n = Number(t);
-  return Number.isFinite(n) ? n : "invalid";
+export function parseDecimal(text: string, expected?: number | null): number | null | "invalid" {
+  const p = parseNumberInput(text, { expected });
+  return p.kind === "number" ? p.value : p.kind === "empty" ? null : "invalid";
 }
+
+/** About how large each field's values are, to settle a typed "1,250" (see `parseNumberInput`). */
+export type ExpectedSizes = {
+  engineHours: number | null;
+  linerHours: number | null;
+  temperatureC: number;
+  /** Nominal bore, mm. */
+  diameterMm: number;
+  gapMm: (position: number) => number | null;
+  grooveMm: (position: number) => number | null;
+  pressureBar: number;
+  count: number;
+};
+
+/**
+ * The expected sizes for a sheet: the hours last saved (a counter is never a fraction of
+ * them), about 20 °C, the nominal bore, each ring's limits, and the profile's rod nut pressure
+ * (or about 1000 bar, the order of hydraulic tightening pressures, common practice).
+ */
+export function expectedSizes(profile: ContextProfile, hours: { engineHours: number | null; linerHours: number | null }): ExpectedSizes {
+  const ring = (position: number) => profile.rings.find((r) => r.position === position);
+  return {
+    engineHours: hours.engineHours || null,
+    linerHours: hours.linerHours || null,
+    temperatureC: 20,
+    diameterMm: profile.boreMm,
+    gapMm: (position) => ring(position)?.gapLimitMm ?? null,
+    grooveMm: (position) => ring(position)?.grooveLimitMm ?? null,
+    pressureBar: profile.rodNutPressureBar ?? 1000,
+    count: 10,
+  };
+}
+
+/** An expected length in mm as the size of a value typed in `unit`. */
+export const expectedIn = (mm: number | null, unit: LengthUnit) => (mm == null ? null : unit === "in" ? mm / MM_PER_INCH : mm);
 
 /** A length as typed, in millimetres rounded to the 1 µm the database keeps. */
 export function toMm(value: number, unit: LengthUnit): number {
@@ -111,7 +146,7 @@ export function fromDraft(draft: InspectionDraft, profile: ContextProfile): Form
     rings[spec.position] = {
       unit: entryUnit,
       closedGap: ringText(r?.closedGapMm),
-      gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
+      gapMeasuredIn: r?.gapMeasuredIn ?? null,
       gapLinerDiameter: ringText(r?.gapLinerDiameterMm),
       groove: ringText(r?.grooveClearanceMm),
       renewed: r?.renewed ?? false,
@@ -159,8 +194,9 @@ export type ConvertedForm = {
  */
 export function toDraft(form: FormState, profile: ContextProfile, fallback: InspectionHeader): ConvertedForm {
   const invalid: string[] = [];
-  const read = (field: string, text: string): number | null => {
-    const v = parseDecimal(text);
+  const sizes = expectedSizes(profile, fallback);
+  const read = (field: string, text: string, expected?: number | null): number | null => {
+    const v = parseDecimal(text, expected);
     if (v === "invalid") {
       invalid.push(field);
       return null;
@@ -168,12 +204,12 @@ export function toDraft(form: FormState, profile: ContextProfile, fallback: Insp
     return v;
   };
   const required = (field: string, text: string, fb: number) => {
-    const v = read(field, text);
+    const v = read(field, text, fb || null);
     if (v === null && !invalid.includes(field)) invalid.push(field);
     return v ?? fb;
   };
   const count = (field: string, text: string) => {
-    const v = read(field, text);
+    const v = read(field, text, sizes.count);
     if (v !== null && (!Number.isInteger(v) || v < 0)) {
       invalid.push(field);
       return null;
@@ -188,8 +224,8 @@ export function toDraft(form: FormState, profile: ContextProfile, fallback: Insp
     linerHours: required("header.linerHours", form.header.linerHours, fallback.linerHours),
     linerHoursReason: text(form.header.linerHoursReason),
     crew: text(form.header.crew),
-    gaugeTempC: read("header.gaugeTempC", form.header.gaugeTempC),
-    linerTempC: read("header.linerTempC", form.header.linerTempC),
+    gaugeTempC: read("header.gaugeTempC", form.header.gaugeTempC, sizes.temperatureC),
+    linerTempC: read("header.linerTempC", form.header.linerTempC, sizes.temperatureC),
     notes: text(form.header.notes),
   };
 
@@ -199,7 +235,7 @@ export function toDraft(form: FormState, profile: ContextProfile, fallback: Insp
       const key = cellKey(s.key, a.key);
       const cell = form.cells[key];
       if (!cell) continue;
-      const v = read(`readings.${key}`, cell.text);
+      const v = read(`readings.${key}`, cell.text, expectedIn(sizes.diameterMm, cell.unit));
       if (v === null) continue;
       if (v <= 0) {
         invalid.push(`readings.${key}`);
@@ -211,17 +247,17 @@ export function toDraft(form: FormState, profile: ContextProfile, fallback: Insp
 
   const rings: InspectionDraft["rings"] = profile.rings.map((spec) => {
     const r = form.rings[spec.position];
-    const length = (field: string, text: string) => {
-      const v = read(field, text);
+    const length = (field: string, text: string, expectedMm: number | null) => {
+      const v = read(field, text, expectedIn(expectedMm, r?.unit ?? "mm"));
       return v === null ? null : toMm(v, r?.unit ?? "mm");
     };
     return {
       position: spec.position,
-      closedGapMm: r ? length(`rings.${spec.position}.closedGapMm`, r.closedGap) : null,
-      gapMeasuredIn: r?.gapMeasuredIn ?? "gauge_ring",
+      closedGapMm: r ? length(`rings.${spec.position}.closedGapMm`, r.closedGap, spec.gapLimitMm) : null,
+      gapMeasuredIn: r?.gapMeasuredIn ?? null,
       gapLinerDiameterMm:
-        r && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameter ? length(`rings.${spec.position}.gapLinerDiameterMm`, r.gapLinerDiameter) : null,
-      grooveClearanceMm: r ? length(`rings.${spec.position}.grooveClearanceMm`, r.groove) : null,
+        r && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameter ? length(`rings.${spec.position}.gapLinerDiameterMm`, r.gapLinerDiameter, profile.boreMm) : null,
+      grooveClearanceMm: r ? length(`rings.${spec.position}.grooveClearanceMm`, r.groove, spec.grooveLimitMm) : null,
       renewed: r?.renewed ?? false,
       condition: r ? text(r.condition) : null,
     };
@@ -240,12 +276,33 @@ export function toDraft(form: FormState, profile: ContextProfile, fallback: Insp
         countOut: count(`checklist.tally.${i}.countOut`, t.countOut),
       })),
       closing: { signedName: text(c.closingName), signedAt: c.closingAt || null },
-      rodNutPressureBar: read("checklist.rodNutPressureBar", c.rodNutPressure),
+      rodNutPressureBar: read("checklist.rodNutPressureBar", c.rodNutPressure, sizes.pressureBar),
       stuffingBox: { done: c.stuffingBoxDone, note: text(c.stuffingBoxNote) },
       cylinderLubrication: { done: c.lubricationDone, note: text(c.lubricationNote) },
     },
   };
   return { draft, invalid };
+}
+
+/**
+ * The sheet with the two directions' typed values exchanged at every station (confirmations
+ * are dropped, since the warnings they answered no longer apply): one tap when the readings
+ * were entered the other way round.
+ */
+export function swapDirections(form: FormState, profile: Pick<ContextProfile, "stations" | "axes">): FormState {
+  const [a, b] = profile.axes;
+  const cells: Record<string, CellEntry> = { ...form.cells };
+  for (const s of profile.stations) {
+    const ka = cellKey(s.key, a.key);
+    const kb = cellKey(s.key, b.key);
+    const ca = form.cells[ka];
+    const cb = form.cells[kb];
+    delete cells[ka];
+    delete cells[kb];
+    if (cb) cells[ka] = { ...cb, confirmed: null };
+    if (ca) cells[kb] = { ...ca, confirmed: null };
+  }
+  return { ...form, cells };
 }
 
 /** A short random token for idempotent creates and tally keys (browser or server crypto). */

@@ -2,10 +2,12 @@ import "server-only";
 import type { Knex } from "knex";
 import { recomputeUnits } from "@/lib/analysis/recompute";
 import { writeAudit } from "@/lib/audit/mutations";
+import { isRole } from "@/lib/auth/roles";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { removeObject } from "@/lib/photos/storage";
+import { approvalRefusal } from "./approval";
 import { toWearProfile, type InspectionContext } from "./context";
 import { DEFAULT_TALLY_LABELS } from "./form";
 import { loadInspectionContext } from "./context-queries";
@@ -278,7 +280,8 @@ export async function submitInspection(actor: Actor, id: number, revision: numbe
 }
 
 /**
- * Submitted → approved, by a chief engineer. Approving an amendment marks the version it
+ * Submitted → approved, by a chief engineer or the superintendent who neither entered nor
+ * submitted it (approval.ts). Approving an amendment marks the version it
  * replaces as superseded (kept, and still visible). The unit's stored analysis is
  * recomputed in the same transaction so the fleet screens show the new readings at once.
  */
@@ -287,6 +290,10 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
     const row = await loadForTransition(trx, id);
     if (row.state === "approved") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (row.state !== "submitted") await conflict(trx, id, `This inspection is ${row.state}; only a submitted inspection can be approved.`);
+    const parties = await trx("inspections").where({ id }).first("created_by as createdBy", "submitted_by as submittedBy");
+    const approver = await trx("user").where({ id: actor.id }).first("role");
+    const refusal = isRole(approver?.role) ? approvalRefusal({ id: actor.id, role: approver.role }, parties) : "Your role does not approve inspection records.";
+    if (refusal) throw new RecordError(403, refusal);
     const { problems, ctx, draft } = await completeProblems(trx, row);
     if (problems.length) refuse(problems);
     const n = await trx("inspections")

@@ -208,8 +208,8 @@ export async function listOpenInspections(unitId: number) {
     .where({ unit_id: unitId })
     .whereIn("state", ["draft", "submitted", "returned"])
     .orderBy("updated_at", "desc")
-    .select("id", "inspected_on as inspectedOn", "state", "version", "updated_at as updatedAt") as Promise<
-    { id: number; inspectedOn: string; state: InspectionState; version: number; updatedAt: Date }[]
+    .select("id", "inspected_on as inspectedOn", "state", "version", "supersedes_id as supersedesId", "updated_at as updatedAt") as Promise<
+    { id: number; inspectedOn: string; state: InspectionState; version: number; supersedesId: number | null; updatedAt: Date }[]
   >;
 }
 

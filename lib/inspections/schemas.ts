@@ -1,4 +1,12 @@
 import { z } from "zod";
+import { MAX_RUNNING_HOURS } from "@/lib/validation/bounds";
+import { recordDate, recordDateTime } from "@/lib/validation/dates";
+import { recordIdField } from "@/lib/validation/ids";
+import { GAP_MEASURED_IN, INSPECTION_STATES, PHOTO_MAX_BYTES, type InspectionState } from "./constants";
+
+// The plain values live in ./constants (no zod), so screens that only need a label or a limit
+// do not carry the validator in their first load; they are re-exported here for the server.
+export { emptyChecklist, GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS, INSPECTION_STATES, PHOTO_MAX_BYTES, PHOTO_TYPES, STATE_LABELS, type InspectionState } from "./constants";
 
 /*
  * One overhaul inspection as the browser and the server both see it. The entry form
@@ -10,18 +18,16 @@ import { z } from "zod";
 /** Most a request may carry: far more than any profile (about 12 stations × 2 axes, 6 rings). */
 export const LIMITS = { readings: 200, rings: 20, tallyItems: 40 } as const;
 
-/** Largest photo accepted (the file as stored, after upload). */
-export const PHOTO_MAX_BYTES = 15 * 1024 * 1024;
 
 const numberError = (label: string) => (issue: { input?: unknown }) =>
   issue.input === undefined || issue.input === null ? `Enter the ${label}.` : `The ${label} must be a number, not "${String(issue.input).slice(0, 20)}".`;
 
-/** A finite number with a range, and messages that name the field in words. */
+/** A finite number with a range, and messages that name the field and quote what was sent. */
 const num = (label: string, min: number, max: number, unit: string) =>
   z
     .number({ error: numberError(label) })
-    .min(min, `The ${label} cannot be below ${min} ${unit}.`)
-    .max(max, `The ${label} cannot be above ${max} ${unit}.`);
+    .min(min, { error: (i) => `The ${label} cannot be below ${min} ${unit}; ${String(i.input)} ${unit} was entered.` })
+    .max(max, { error: (i) => `The ${label} cannot be above ${max} ${unit}; ${String(i.input)} ${unit} was entered.` });
 
 const optionalText = (label: string, max: number) =>
   z
@@ -31,13 +37,8 @@ const optionalText = (label: string, max: number) =>
     .nullable()
     .transform((v) => (v === "" ? null : v));
 
-export const isoDateSchema = z
-  .string({ error: "Enter the date." })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, "Enter the date as yyyy-mm-dd.")
-  .refine((s) => {
-    const ms = Date.parse(`${s}T00:00:00Z`);
-    return Number.isFinite(ms) && new Date(ms).toISOString().slice(0, 10) === s;
-  }, "That date does not exist.");
+/** The day of the inspection: a real calendar day from 1950 to today (lib/validation/dates.ts). */
+export const isoDateSchema = recordDate("inspection date");
 
 const temperature = (label: string) => num(label, -30, 150, "°C").nullable();
 
@@ -45,8 +46,8 @@ const temperature = (label: string) => num(label, -30, 150, "°C").nullable();
 
 export const inspectionHeaderSchema = z.object({
   inspectedOn: isoDateSchema,
-  engineHours: num("engine running hours", 0, 2_000_000, "h"),
-  linerHours: num("liner hours", 0, 2_000_000, "h"),
+  engineHours: num("engine running hours", 0, MAX_RUNNING_HOURS, "h"),
+  linerHours: num("liner hours", 0, MAX_RUNNING_HOURS, "h"),
   /** Required when the liner hours differ from the value derived from the liner's installation. */
   linerHoursReason: optionalText("reason for the liner hours", 255),
   crew: optionalText("crew", 255),
@@ -73,17 +74,12 @@ export const linerReadingSchema = z.object({
 });
 export type LinerReadingInput = z.infer<typeof linerReadingSchema>;
 
-export const GAP_MEASURED_IN = ["gauge_ring", "liner_unworn", "liner_worn"] as const;
-export const GAP_MEASURED_IN_LABELS: Record<(typeof GAP_MEASURED_IN)[number], string> = {
-  gauge_ring: "Gauge ring",
-  liner_unworn: "Unworn liner",
-  liner_worn: "Worn liner",
-};
 
 export const ringReadingSchema = z.object({
   position: z.number({ error: "Name the ring position." }).int().min(1).max(LIMITS.rings),
   closedGapMm: num("closed gap", 0, 100, "mm").nullable(),
-  gapMeasuredIn: z.enum(GAP_MEASURED_IN, { error: "Say where the gap was measured." }),
+  /** No default: null until the engineer says, and required once a gap is entered. */
+  gapMeasuredIn: z.enum(GAP_MEASURED_IN, { error: "Say where the gap was measured." }).nullable(),
   /** The liner's diameter where a gap was measured in a worn part of the liner. */
   gapLinerDiameterMm: num("liner diameter where the gap was measured", 1, 5000, "mm").nullable().optional(),
   grooveClearanceMm: num("groove clearance", 0, 20, "mm").nullable(),
@@ -94,7 +90,13 @@ export type RingReadingInput = z.infer<typeof ringReadingSchema>;
 
 // ── overhaul checklist ───────────────────────────────────────────────────────────
 
-const count = (label: string) => z.number({ error: numberError(label) }).int(`The ${label} is a whole number.`).min(0).max(999).nullable();
+const count = (label: string) =>
+  z
+    .number({ error: numberError(label) })
+    .int({ error: (i) => `The ${label} is a whole number, not ${String(i.input)}.` })
+    .min(0, { error: (i) => `The ${label} cannot be below 0; ${String(i.input)} was entered.` })
+    .max(999, { error: (i) => `The ${label} is at most 999 items; ${String(i.input)} was entered.` })
+    .nullable();
 
 export const tallyItemSchema = z.object({
   key: z.string().regex(/^[a-z0-9_]{1,48}$/, "Tally item keys are lower-case letters, digits and _."),
@@ -110,7 +112,7 @@ export const checklistSchema = z.object({
   tally: z.array(tallyItemSchema).max(LIMITS.tallyItems, `At most ${LIMITS.tallyItems} tally items.`),
   closing: z.object({
     signedName: optionalText("name of the person closing", 120),
-    signedAt: z.iso.datetime({ offset: true, error: "Enter the time of the closing inspection." }).nullable(),
+    signedAt: recordDateTime("time of the closing inspection").nullable(),
   }),
   rodNutPressureBar: num("rod nut tightening pressure", 0, 3000, "bar").nullable(),
   stuffingBox: checkItem,
@@ -118,13 +120,6 @@ export const checklistSchema = z.object({
 });
 export type ChecklistInput = z.infer<typeof checklistSchema>;
 
-export const emptyChecklist = (): ChecklistInput => ({
-  tally: [],
-  closing: { signedName: null, signedAt: null },
-  rodNutPressureBar: null,
-  stuffingBox: { done: false, note: null },
-  cylinderLubrication: { done: false, note: null },
-});
 
 // ── whole documents and requests ─────────────────────────────────────────────────
 
@@ -155,9 +150,17 @@ export const inspectionDraftSchema = z
   });
 export type InspectionDraft = z.infer<typeof inspectionDraftSchema>;
 
+/** The record's revision counter as the client last saw it: 1, 2, 3… */
+const revisionField = z
+  .number({ error: (i) => (i.input == null ? "The revision is missing." : `The revision must be a number, not "${String(i.input).slice(0, 20)}".`) })
+  // The range first: 1e20 is "no such revision", not "not a whole number".
+  .min(1, { error: (i) => `The revision counts from 1; ${String(i.input)} was sent.` })
+  .max(2_147_483_647, { error: (i) => `No record has revision ${String(i.input)}; reload the record.` })
+  .int({ error: (i) => `The revision is a whole number, not ${String(i.input)}.` });
+
 /** PUT /api/inspections/:id — a draft save; `revision` is the copy the client last had. */
 export const saveDraftSchema = z.object({
-  revision: z.number({ error: "The revision is missing." }).int().positive(),
+  revision: revisionField,
   draft: inspectionDraftSchema,
 });
 export type SaveDraftInput = z.infer<typeof saveDraftSchema>;
@@ -165,8 +168,8 @@ export type SaveDraftInput = z.infer<typeof saveDraftSchema>;
 /** What the first screen asks before the grid opens. */
 export const newInspectionFormSchema = z.object({
   inspectedOn: isoDateSchema,
-  engineHours: num("engine running hours", 0, 2_000_000, "h"),
-  linerHours: num("liner hours", 0, 2_000_000, "h"),
+  engineHours: num("engine running hours", 0, MAX_RUNNING_HOURS, "h"),
+  linerHours: num("liner hours", 0, MAX_RUNNING_HOURS, "h"),
   linerHoursReason: optionalText("reason for the liner hours", 255),
   crew: optionalText("crew", 255),
   gaugeTempC: temperature("gauge temperature"),
@@ -176,12 +179,12 @@ export type NewInspectionFormInput = z.infer<typeof newInspectionFormSchema>;
 
 /** POST /api/inspections — `clientToken` makes a repeated create (double tap, retry) return the same row. */
 export const createInspectionSchema = newInspectionFormSchema.extend({
-  unitId: z.number({ error: "Choose the unit." }).int().positive(),
+  unitId: recordIdField("unit"),
   clientToken: z.string().regex(/^[A-Za-z0-9_-]{16,64}$/, "The request token is malformed."),
 });
 export type CreateInspectionInput = z.infer<typeof createInspectionSchema>;
 
-export const submitInspectionSchema = z.object({ revision: z.number().int().positive().optional() });
+export const submitInspectionSchema = z.object({ revision: revisionField.optional() });
 
 export const returnInspectionSchema = z.object({
   comment: z
@@ -200,16 +203,19 @@ export const amendInspectionSchema = z.object({
   clientToken: z.string().regex(/^[A-Za-z0-9_-]{16,64}$/, "The request token is malformed."),
 });
 
-export const PHOTO_TYPES = ["image/jpeg", "image/png", "image/webp", "image/heic", "image/heif"] as const;
 
 export const presignPhotoSchema = z.object({
   fileName: z.string().trim().min(1).max(255),
   contentType: z.string().max(120),
-  sizeBytes: z.number().int().positive("The file is empty."),
+  sizeBytes: z
+    .number({ error: "Give the size of the file in bytes." })
+    .int({ error: (i) => `A file size is a whole number of bytes, not ${String(i.input)}.` })
+    .positive("The file is empty.")
+    .max(Number.MAX_SAFE_INTEGER, "The file size is not a real size."),
 });
 
 export const completePhotoSchema = z.object({
-  fileId: z.number().int().positive(),
+  fileId: recordIdField("upload"),
   caption: optionalText("caption", 500),
   stationKey: z.string().max(16).nullable(),
   ringPosition: z.number().int().min(1).max(LIMITS.rings).nullable(),
@@ -217,16 +223,6 @@ export const completePhotoSchema = z.object({
 
 // ── what the server sends back ───────────────────────────────────────────────────
 
-export const INSPECTION_STATES = ["draft", "submitted", "returned", "approved", "superseded"] as const;
-export type InspectionState = (typeof INSPECTION_STATES)[number];
-
-export const STATE_LABELS: Record<InspectionState, string> = {
-  draft: "Draft",
-  submitted: "Awaiting approval",
-  returned: "Returned for correction",
-  approved: "Approved",
-  superseded: "Superseded by amendment",
-};
 
 export type PersonStamp = { id: string; name: string } | null;
 

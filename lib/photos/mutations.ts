@@ -14,7 +14,9 @@ import { objectSize, presignUpload, readObject, removeObject, writeObject } from
  * Photos in three steps: a slot (a pending ledger row and a presigned PUT), the upload
  * from the browser straight to the store, and "complete", where the server reads the
  * object back and keeps it only if it is an image by content and within the size limit.
- * A refused upload is deleted from the store at once.
+ * A refused upload is deleted from the store at once. A kept photo is written, from the
+ * very bytes that were checked and hashed, to a new key no upload URL was ever signed for,
+ * and the upload key is deleted: once completed, the evidence cannot be replaced.
  */
 
 type Actor = { id: string; name: string };
@@ -55,7 +57,7 @@ export async function createPhotoSlot(
     });
     return { fileId: fileId as number, key };
   });
-  const { url, headers } = await presignUpload(key, contentType);
+  const { url, headers } = await presignUpload(key, contentType, input.sizeBytes);
   // Housekeeping that must never block a new photo.
   void purgeAbandonedUploads(db).catch((err) => console.error("purging abandoned uploads failed", err));
   return { fileId, uploadUrl: url, headers };
@@ -133,8 +135,11 @@ export async function completePhoto(
     });
   }
   const sha256 = createHash("sha256").update(bytes).digest("hex");
+  // The stored copy: the checked bytes under a fresh, unguessable key with its checked type.
+  const storedKey = `inspections/${inspectionId}/photo-${randomUUID()}`;
+  await writeObject(storedKey, bytes, type);
   const thumb = await makeThumbnail(bytes);
-  const thumbKey = `${file.object_key}.thumb.jpg`;
+  const thumbKey = `${storedKey}.thumb.jpg`;
   if (thumb) await writeObject(thumbKey, thumb, "image/jpeg");
   const note = thumb ? null : `No preview could be made for this ${type === "image/jpeg" || type === "image/png" || type === "image/webp" ? "image" : "HEIC/HEIF"} photo; the original is kept.`;
 
@@ -142,7 +147,9 @@ export async function completePhoto(
   try {
     photoId = await db.transaction(async (trx) => {
       const row = await lockEditableInspection(trx, inspectionId);
-      const claimed = await trx("stored_files").where({ id: file.id, status: "pending" }).update({ status: "stored", content_type: type, size_bytes: size, sha256 });
+      const claimed = await trx("stored_files")
+        .where({ id: file.id, status: "pending" })
+        .update({ status: "stored", object_key: storedKey, content_type: type, size_bytes: size, sha256 });
       if (claimed !== 1) throw new RecordError(409, "This upload was already completed.");
       let thumbId: number | null = null;
       if (thumb) {
@@ -180,12 +187,16 @@ export async function completePhoto(
     });
   } catch (err) {
     // The inspection left draft meanwhile (or the upload was completed twice): keep nothing half-filed.
+    await removeObject(storedKey).catch(() => undefined);
+    if (thumb) await removeObject(thumbKey).catch(() => undefined);
     if (err instanceof RecordError && err.status === 409 && err.message !== "This upload was already completed.") {
       await discard(db, file.id, file.object_key);
-      if (thumb) await removeObject(thumbKey).catch(() => undefined);
     }
     throw err;
   }
+  // The upload key's object is no longer the record's; an upload URL still inside its few
+  // minutes can only write there, never over the stored photo.
+  await removeObject(file.object_key).catch((err) => console.error("removing a completed upload failed", err));
   const dto = (await listPhotos(inspectionId, db)).find((p) => p.id === photoId)!;
   return { ...dto, note };
 }

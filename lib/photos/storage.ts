@@ -9,23 +9,43 @@ import { bucket, s3 } from "@/lib/storage/s3";
  * presigned GETs; the server reads an object back once, to check it.
  */
 
-const UPLOAD_TTL_S = 15 * 60;
+/**
+ * A presigned upload is for one photo, sent now: it expires in minutes (the clock stops
+ * when the upload starts, so a slow link still finishes), and the store refuses a body of
+ * another length or type, since both are part of the signature.
+ */
+export const UPLOAD_TTL_S = 5 * 60;
 const READ_TTL_S = 5 * 60;
 
-/** A URL the browser can PUT one object to, and the headers it must send with it. */
-export async function presignUpload(key: string, contentType: string): Promise<{ url: string; headers: Record<string, string> }> {
-  const url = await getSignedUrl(s3, new PutObjectCommand({ Bucket: bucket, Key: key, ContentType: contentType }), { expiresIn: UPLOAD_TTL_S });
+/** A URL the browser can PUT one object of exactly `sizeBytes` and `contentType` to, and the headers it must send. */
+export async function presignUpload(key: string, contentType: string, sizeBytes: number): Promise<{ url: string; headers: Record<string, string> }> {
+  const url = await getSignedUrl(s3, new PutObjectCommand({ Bucket: bucket, Key: key, ContentType: contentType, ContentLength: sizeBytes }), {
+    expiresIn: UPLOAD_TTL_S,
+    signableHeaders: new Set(["content-type", "content-length"]),
+  });
+  // The browser sets Content-Length itself from the file; it must equal the size declared.
   return { url, headers: { "Content-Type": contentType } };
 }
 
-export async function presignRead(key: string, contentType: string, fileName?: string | null): Promise<string> {
+const EXTENSIONS: Record<string, string> = { "image/jpeg": "jpg", "image/png": "png", "image/webp": "webp", "image/heic": "heic", "image/heif": "heif" };
+
+/**
+ * A short-lived read URL for a stored photo. The answer carries the type found by content
+ * when the photo was checked, and a file name of our own with that type's extension; a
+ * type that is not one of the checked image types is only ever offered as a download, so
+ * nothing from the store can be rendered as a page.
+ */
+export async function presignRead(key: string, checkedType: string, name = "photo"): Promise<string> {
+  const ext = EXTENSIONS[checkedType];
+  const safeName = name.replace(/[^\w.-]/g, "_").slice(0, 60) || "photo";
   return getSignedUrl(
     s3,
     new GetObjectCommand({
       Bucket: bucket,
       Key: key,
-      ResponseContentType: contentType,
-      ResponseContentDisposition: fileName ? `inline; filename="${fileName.replace(/[^\w.\- ]/g, "_")}"` : undefined,
+      ResponseContentType: ext ? checkedType : "application/octet-stream",
+      ResponseContentDisposition: ext ? `inline; filename="${safeName}.${ext}"` : `attachment; filename="${safeName}"`,
+      ResponseCacheControl: "private, max-age=300",
     }),
     { expiresIn: READ_TTL_S },
   );

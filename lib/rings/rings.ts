@@ -1,6 +1,5 @@
 import { leastSquaresSlope } from "../stats/regression";
-import { formatMm as mm } from "../units/length";
-import { formatRunningHours } from "../wear/calendar";
+import { hoursText as formatRunningHours, mm, rateText } from "../format";
 
 /** New and limit values for one ring position, from the maker's clearance table. */
 export type RingPositionSpec = {
@@ -59,6 +58,31 @@ export type RingIssue = { kind: "unknown_position" | "duplicate_reading" | "not_
 
 export type RingAnalysis = { rings: RingResult[]; issues: RingIssue[] };
 
+/** Below this (mm under nominal, after correction to 20 °C) a "worn" diameter is refused; within it, the gauge's resolution, it counts as nominal. */
+const UNDER_NOMINAL_TOLERANCE_MM = 0.01;
+
+export type GapLinerIncrease = { kind: "ok"; increaseMm: number } | { kind: "none" } | { kind: "invalid"; message: string };
+
+/**
+ * The liner diameter's increase over nominal where a ring gap was read in a worn part of the
+ * liner. The diameter is read with the same micrometer at the same temperatures as the bore
+ * readings, so it is referred to 20 °C with the same factor (ISO 1; see lib/wear/correction).
+ * A worn part cannot be under the nominal bore: a diameter more than the gauge's 0.01 mm under
+ * it is refused with a plain reason, because a negative increase would enlarge the gap instead
+ * of reducing it. A missing or non-finite diameter gives "none".
+ */
+export function gapLinerIncrease(boreMm: number, diameterMm: number | null | undefined, correctionFactor = 1): GapLinerIncrease {
+  if (diameterMm == null || !Number.isFinite(diameterMm) || !Number.isFinite(correctionFactor)) return { kind: "none" };
+  const increaseMm = diameterMm * correctionFactor - boreMm;
+  if (increaseMm < -UNDER_NOMINAL_TOLERANCE_MM) {
+    return {
+      kind: "invalid",
+      message: `The liner diameter where the gap was read, ${mm(diameterMm * correctionFactor)} at 20 °C, is under the ${mm(boreMm)} nominal bore; a worn part of the liner cannot be. Check the reading, or record the gap as read in an unworn part.`,
+    };
+  }
+  return { kind: "ok", increaseMm: Math.max(0, increaseMm) };
+}
+
 /**
  * The closed gap referred to a gauge ring of nominal bore. A ring in a worn part of the liner
  * opens by the increase in circumference, π × the diameter increase (derived), so that is taken
@@ -71,7 +95,8 @@ export function normaliseClosedGap(
   linerDiameterIncreaseMm?: number | null,
 ): { gapMm: number; basis: "gauge_ring" | "as_measured" } {
   if (measuredIn !== "liner_worn") return { gapMm: measuredMm, basis: "gauge_ring" };
-  if (linerDiameterIncreaseMm == null || !Number.isFinite(linerDiameterIncreaseMm)) return { gapMm: measuredMm, basis: "as_measured" };
+  // A negative increase is refused (gapLinerIncrease): it would open the gap rather than close it.
+  if (linerDiameterIncreaseMm == null || !Number.isFinite(linerDiameterIncreaseMm) || linerDiameterIncreaseMm < 0) return { gapMm: measuredMm, basis: "as_measured" };
   return { gapMm: measuredMm - Math.PI * linerDiameterIncreaseMm, basis: "gauge_ring" };
 }
 
@@ -155,7 +180,13 @@ export function analyseRings(
           issues.push({ kind: "invalid_value", position: spec.position, message: `Ring ${spec.position}: the closed gap is not a valid length.` });
         } else {
           const { gapMm, basis } = normaliseClosedGap(reading.closedGapMm, reading.gapMeasuredIn, reading.linerDiameterIncreaseMm);
-          if (basis === "as_measured") {
+          if (basis === "as_measured" && reading.linerDiameterIncreaseMm != null && reading.linerDiameterIncreaseMm < 0) {
+            issues.push({
+              kind: "invalid_value",
+              position: spec.position,
+              message: `Ring ${spec.position}: the liner diameter where the gap was read is under the nominal bore, which a worn part cannot be; the gap is used as measured.`,
+            });
+          } else if (basis === "as_measured") {
             issues.push({
               kind: "gap_not_normalised",
               position: spec.position,
@@ -189,7 +220,7 @@ export function analyseRings(
         } else if (nextOverhaul !== null && m.hoursToLimit !== null && m.hoursToLimit < nextOverhaul) {
           result.renew = true;
           result.reasons.push(
-            `Ring ${spec.position} ${name} is growing ${mm(m.growthMmPer1000h, 3)} per 1000 h and would reach its ${mm(m.limitMm)} limit in about ${formatRunningHours(m.hoursToLimit)}, before the next overhaul.`,
+            `Ring ${spec.position} ${name} is growing ${rateText(m.growthMmPer1000h)} and would reach its ${mm(m.limitMm)} limit in about ${formatRunningHours(m.hoursToLimit)}, before the next overhaul.`,
           );
         }
       }

@@ -41,6 +41,9 @@ export type LinearFit = {
   deletedResiduals: (number | null)[];
 };
 
+/** What a prediction interval needs from a fit; a stored fit keeps only these. */
+export type PredictionFit = Pick<LinearFit, "model" | "n" | "df" | "intercept" | "slope" | "mse" | "xMean" | "sxx" | "sumX2">;
+
 export type FitResult =
   | { kind: "fit"; fit: LinearFit }
   | { kind: "insufficient_data"; needed: number; have: number }
@@ -193,7 +196,7 @@ function leverage(model: FitModel, n: number, x: number, xMean: number, spread: 
  * through the origin. A new inspection is one new observation, so this, not the narrower
  * confidence interval for the mean line, is the honest band. Null for a non-finite x.
  */
-export function predict(fit: LinearFit, x: number, confidence = DEFAULT_CONFIDENCE): PredictionInterval | null {
+export function predict(fit: PredictionFit, x: number, confidence = DEFAULT_CONFIDENCE): PredictionInterval | null {
   const t = tCritical(confidence, fit.df);
   if (t === null || !Number.isFinite(x)) return null;
   const spread = fit.model === "intercept" ? fit.sxx : fit.sumX2;

@@ -27,6 +27,7 @@ export function parseRecordId(value: unknown): number | null {
 export const recordIdField = (what: string) =>
   z
     .number({ error: (i) => (i.input === undefined || i.input === null ? `Choose the ${what}.` : `The ${what} must be given by its record number, not "${String(i.input).slice(0, 20)}".`) })
-    .int(`The ${what} must be given by its record number, a whole number.`)
+    // The range first: a number too large to be an integer exactly (1e20) is "too large", not "not whole".
     .min(1, `The ${what} must be given by its record number, from 1 up.`)
-    .max(MAX_RECORD_ID, `There is no ${what} with a number that large.`);
+    .max(MAX_RECORD_ID, `There is no ${what} with a number that large.`)
+    .int(`The ${what} must be given by its record number, a whole number.`);

@@ -1,6 +1,5 @@
 import type { RingAnalysis } from "../rings/rings";
-import { formatFixed, formatMm as mm } from "../units/length";
-import { formatRunningHours as hours } from "./calendar";
+import { hoursText as hours, mm, rateText as rate, trendWords } from "../format";
 import type { LinerAnalysis, Projection } from "./liner";
 import type { WearProfile } from "./types";
 import { WEAR_RULES } from "./types";
@@ -19,8 +18,6 @@ export const BAND_LABELS: Record<BandKey, string> = {
 export type NextOverhaul = { engineHours: number } | { hoursAhead: number };
 
 export type UnitBand = { band: BandKey; label: string; reasons: string[] };
-
-const rate = (r: number) => `${formatFixed(r, 3)} mm/1000 h`;
 
 /**
  * One status band for a cylinder unit, with the reasons in plain English, most severe first:
@@ -111,6 +108,6 @@ function steadyReason(liner: LinerAnalysis): string {
   const wear = liner.latest?.maxWearMm;
   const now = wear == null ? "Wear" : `Wear ${mm(wear)}`;
   if (p.kind === "not_wearing") return `${now}, with no measurable rise over the steady-state readings.`;
-  if (p.kind === "projected") return `${now}, rising ${rate(liner.wear.trend?.slopeMmPer1000h ?? 0)}; projected to reach its limit at about ${hours(p.atLinerHours)} on the liner.`;
+  if (p.kind === "projected") return `${now}, ${trendWords(liner.wear.trend?.slopeMmPer1000h ?? 0)}; projected to reach its limit at about ${hours(p.atLinerHours)} on the liner.`;
   return `${now}, within limits.`;
 }

@@ -1,4 +1,4 @@
-import { formatFixed } from "../units/length";
+import { hoursText } from "../format";
 
 const DAY_MS = 86_400_000;
 /** Dates further out than this are not worth printing; the projection says "beyond" instead. */
@@ -14,11 +14,8 @@ export type DateProjection =
   | { kind: "dated"; date: string; lower: string | null; upper: string | null }
   | { kind: "unknown"; reason: "rate_unknown" | "beyond_horizon" | "invalid_input" };
 
-/** Running hours rounded to the hour with thousands grouped, e.g. "150,600 h". */
-export function formatRunningHours(hours: number): string {
-  const text = formatFixed(hours, 0);
-  return text === "—" ? text : `${text.replace(/\B(?=(\d{3})+(?!\d))/g, ",")} h`;
-}
+/** Running hours rounded to the hour with thousands grouped, e.g. "150,600 h" (lib/format's hoursText). */
+export const formatRunningHours = (hours: number): string => hoursText(hours);
 
 /** Epoch milliseconds of a strict ISO calendar date (yyyy-mm-dd, UTC midnight), or null. */
 export function parseIsoDate(text: string): number | null {

@@ -1,4 +1,4 @@
-import { formatMm as mm } from "../units/length";
+import { mm } from "../format";
 import type { TemperatureCorrection } from "./correction";
 import { temperatureCorrection } from "./correction";
 import { checkAgainstNominal } from "./plausibility";

@@ -1,7 +1,7 @@
 import type { LinearFit } from "../stats/regression";
 import { fitLine, inversePredict, outlierCriticalValue } from "../stats/regression";
-import { formatFixed } from "../units/length";
-import { formatRunningHours as hoursText, parseIsoDate } from "./calendar";
+import { fixed as formatFixed, hoursText } from "../format";
+import { parseIsoDate } from "./calendar";
 import type { InspectionAnalysis, MaxWear } from "./inspection";
 import { analyseInspection } from "./inspection";
 import { checkProfile, minPointsForProjection } from "./profile";

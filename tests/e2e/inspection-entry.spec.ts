@@ -12,7 +12,7 @@ import { DEMO, shot, signIn } from "./helpers";
 type Analysis = {
   context: { engineId: number };
   profile: { boreMm: number; stations: { key: string }[]; axes: { key: string; label: string }[]; rings: { position: number; gapNewMinMm: number; gapNewMaxMm: number; grooveNewMinMm: number; grooveNewMaxMm: number }[] };
-  series: { cells: { stationKey: string; axisKey: string; correctedMm: number }[] }[];
+  latest: { cells: { stationKey: string; axisKey: string; correctedMm: number }[] } | null;
 };
 
 const status = (page: Page) => page.locator("[data-save-status]");
@@ -30,7 +30,7 @@ async function startInspection(page: Page, cylinder: string, crew: string, step:
   const unitId = Number(new URL(page.url()).searchParams.get("unit"));
   const analysis = (await (await page.request.get(`/api/units/${unitId}/analysis`)).json()) as Analysis;
   const engine = await (await page.request.get(`/api/engines/${analysis.context.engineId}/analysis`)).json();
-  const last = analysis.series.at(-1)?.cells ?? [];
+  const last = analysis.latest?.cells ?? [];
   const value = (stationKey: string, axisKey: string) => {
     const prev = last.find((c) => c.stationKey === stationKey && c.axisKey === axisKey)?.correctedMm ?? analysis.profile.boreMm + 0.2;
     return Math.round((prev + step) * 100) / 100;

@@ -68,7 +68,8 @@ async function upload(inspectionId: number, bytes: Uint8Array, o: { contentType?
       params(inspectionId),
     ),
   );
-  return { ...done, fileId: slot.body.fileId as number, key };
+  const storedKey = (await db("stored_files").where({ id: slot.body.fileId }).first("object_key")).object_key as string;
+  return { ...done, fileId: slot.body.fileId as number, key, storedKey, uploadUrl: slot.body.uploadUrl as string, uploadHeaders: slot.body.headers as Record<string, string> };
 }
 
 describe("photos", () => {
@@ -79,12 +80,16 @@ describe("photos", () => {
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ caption: "Ring 1 groove", ringPosition: 1, contentType: "image/jpeg", sizeBytes: jpeg.length, hasThumbnail: true, note: null });
     expect(res.body.sha256).toBe(createHash("sha256").update(jpeg).digest("hex"));
-    const files = await db("stored_files").where("object_key", "like", `${res.key}%`).orderBy("id").select("kind", "status", "content_type", "sha256");
+    const files = await db("stored_files").where("object_key", "like", `${res.storedKey}%`).orderBy("id").select("kind", "status", "content_type", "sha256");
     expect(files.map((f) => [f.kind, f.status])).toEqual([
       ["photo", "stored"],
       ["thumbnail", "stored"],
     ]);
-    expect(await exists(`${res.key}.thumb.jpg`)).toBe(true);
+    expect(await exists(`${res.storedKey}.thumb.jpg`)).toBe(true);
+    // Kept under a key of its own; the key the upload URL was signed for is gone.
+    expect(res.storedKey).not.toBe(res.key);
+    expect(await exists(res.storedKey)).toBe(true);
+    expect(await exists(res.key)).toBe(false);
     const audit = await db("audit_log").where({ entity_type: "inspection", entity_id: String(id), action: "inspection.photo_added" }).first("actor_id", "detail");
     expect(audit.actor_id).toBe(world.users.engineer.id);
 
@@ -125,12 +130,16 @@ describe("photos", () => {
     expect(declared.status).toBe(400);
     expect(declared.body.error).toMatch(/the limit is 15.0 MB/);
 
-    // A client that claims a small file but sends a large one: the server measures the object itself.
+    // A client that claims a small file but sends a large one: the store refuses a length other than the one signed…
     asCaller(engineerCookie);
     const slot = await json(await presignRoute(request("POST", `/api/inspections/${id}/photos`, { fileName: "big.jpg", contentType: "image/jpeg", sizeBytes: 1000 }), params(id)));
     const big = new Uint8Array(PHOTO_MAX_BYTES + 1024);
     big.set([0xff, 0xd8, 0xff, 0xe0]);
-    expect((await fetch(slot.body.uploadUrl, { method: "PUT", headers: slot.body.headers, body: new Blob([big]) })).status).toBe(200);
+    expect((await fetch(slot.body.uploadUrl, { method: "PUT", headers: slot.body.headers, body: new Blob([big]) })).status).toBe(403);
+    // …and should a store let it through anyway, the server measures the object itself.
+    const { PutObjectCommand } = await import("@aws-sdk/client-s3");
+    const pendingKey = (await db("stored_files").where({ id: slot.body.fileId }).first("object_key")).object_key;
+    await s3.send(new PutObjectCommand({ Bucket: bucket, Key: pendingKey, Body: big, ContentType: "image/jpeg" }));
     const key = (await db("stored_files").where({ id: slot.body.fileId }).first("object_key")).object_key;
     const done = await json(await completeRoute(request("POST", `/api/inspections/${id}/photos/complete`, { fileId: slot.body.fileId, caption: null, stationKey: null, ringPosition: null }), params(id)));
     expect(done.status).toBe(400);
@@ -156,8 +165,8 @@ describe("photos", () => {
     asCaller(engineerCookie);
     const del = await json(await deleteRoute(request("DELETE", `/api/inspections/${d.id}/photos/${res.body.id}`), params(d.id, res.body.id)));
     expect(del).toMatchObject({ status: 200, body: { deletedObjects: 2 } });
-    expect(await exists(res.key)).toBe(false);
-    expect(await exists(`${res.key}.thumb.jpg`)).toBe(false);
+    expect(await exists(res.storedKey)).toBe(false);
+    expect(await exists(`${res.storedKey}.thumb.jpg`)).toBe(false);
     expect((await db("stored_files").where({ id: res.fileId }).first("status")).status).toBe("deleted");
 
     await submitInspection(engineer(), d.id, undefined);
@@ -165,6 +174,52 @@ describe("photos", () => {
     const late = await json(await presignRoute(request("POST", `/api/inspections/${d.id}/photos`, { fileName: "a.png", contentType: "image/png", sizeBytes: 100 }), params(d.id)));
     expect(late.status).toBe(409);
     expect(late.body.error).toMatch(/only while it is a draft/);
+  });
+
+  it("keeps the completed photo as it was checked: its upload URL can no longer replace it", async () => {
+    const { id } = await draftOn(unitId, engineer(), { complete: false });
+    const png = await makeImage("png", 48);
+    const res = await upload(id, png, { contentType: "image/png", fileName: "liner.png" });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    // The same URL, inside its few minutes, with bytes of the same length and type.
+    const forged = new Uint8Array(png.length).fill(0x41);
+    const again = await fetch(res.uploadUrl, { method: "PUT", headers: res.uploadHeaders, body: new Blob([forged]) });
+    expect([200, 403]).toContain(again.status);
+    asCaller(engineerCookie);
+    const view = await viewRoute(request("GET", `/api/inspections/${id}/photos/${res.body.id}?variant=full`), params(id, res.body.id));
+    const served = Buffer.from(await (await fetch(view.headers.get("location")!)).arrayBuffer());
+    expect(createHash("sha256").update(served).digest("hex")).toBe(res.body.sha256);
+    expect(createHash("sha256").update(served).digest("hex")).toBe(createHash("sha256").update(png).digest("hex"));
+  });
+
+  it("signs the upload for the declared length and type, for a few minutes only", async () => {
+    const { id } = await draftOn(unitId, engineer(), { complete: false });
+    const png = await makeImage("png", 32);
+    asCaller(engineerCookie);
+    const slot = await json(await presignRoute(request("POST", `/api/inspections/${id}/photos`, { fileName: "a.png", contentType: "image/png", sizeBytes: png.length }), params(id)));
+    expect(slot.status).toBe(201);
+    const url = new URL(slot.body.uploadUrl);
+    expect(Number(url.searchParams.get("X-Amz-Expires"))).toBeLessThanOrEqual(300);
+    expect(url.searchParams.get("X-Amz-SignedHeaders")?.split(";")).toEqual(expect.arrayContaining(["content-length", "content-type", "host"]));
+    const longer = new Uint8Array(png.length + 1);
+    longer.set(png);
+    expect((await fetch(slot.body.uploadUrl, { method: "PUT", headers: slot.body.headers, body: new Blob([longer]) })).status).toBe(403);
+    expect((await fetch(slot.body.uploadUrl, { method: "PUT", headers: { "Content-Type": "text/html" }, body: new Blob([png as Uint8Array<ArrayBuffer>]) })).status).toBe(403);
+    expect((await fetch(slot.body.uploadUrl, { method: "PUT", headers: slot.body.headers, body: new Blob([png as Uint8Array<ArrayBuffer>]) })).status).toBe(200);
+  });
+
+  it("serves a photo with the type found by its content and a disposition of its own, never the uploader's name or claim", async () => {
+    const { id } = await draftOn(unitId, engineer(), { complete: false });
+    // Declared as an unknown type with an HTML name; the content is a PNG.
+    const res = await upload(id, await makeImage("png", 40), { contentType: "application/octet-stream", fileName: "evidence.html" });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    asCaller(engineerCookie);
+    const view = await viewRoute(request("GET", `/api/inspections/${id}/photos/${res.body.id}?variant=full`), params(id, res.body.id));
+    const served = await fetch(view.headers.get("location")!);
+    expect(served.headers.get("content-type")).toBe("image/png");
+    expect(served.headers.get("content-disposition")).toBe(`inline; filename="photo-${res.body.id}.png"`);
+    const thumb = await viewRoute(request("GET", `/api/inspections/${id}/photos/${res.body.id}?variant=thumb`), params(id, res.body.id));
+    expect((await fetch(thumb.headers.get("location")!)).headers.get("content-type")).toBe("image/jpeg");
   });
 
   it("refuses a file type that is not a photo before any upload", async () => {

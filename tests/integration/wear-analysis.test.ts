@@ -4,6 +4,7 @@ import { mockedCookies, mockedHeaders } from "../support/next-mocks";
 vi.mock("next/headers", () => ({ headers: async () => mockedHeaders(), cookies: async () => mockedCookies() }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), updateTag: vi.fn(), refresh: vi.fn() }));
 
+import { getUnitAnalysis } from "@/lib/analysis/queries";
 import { db } from "@/lib/db/knex";
 import { listUnitsToInspect } from "@/lib/inspections/queries";
 import { approvedOn } from "../support/inspection-builders";
@@ -43,5 +44,33 @@ describe("next overhaul", () => {
     expect(summary.nextOverhaulEngineHours).toBe(expected);
     const chooser = (await listUnitsToInspect({ ...world.users.engineer, vessels: [world.vessel1] } as never)).find((u) => u.id === unitId);
     expect(chooser?.nextOverhaulEngineHours).toBe(expected);
+  });
+});
+
+describe("the unit screen reads the stored analysis", () => {
+  it("answers from unit_analysis, kept current by approval, without recomputing on the request", async () => {
+    const unitId = await newUnit();
+    const { id } = await approvedOn(unitId, actor("engineer"), actor("chief"), { wearMm: 0.5 });
+    const supt = { ...world.users.supt, vessels: "all" } as never;
+    const first = (await getUnitAnalysis(supt, unitId))!;
+    expect(first.points.map((p) => p.inspectionId)).toEqual([String(id)]);
+    expect(first.summary.maxWearMm).toBeGreaterThan(0.4); // 0.5 mm as read, a little less at 20 °C
+    expect(first.latest?.cells.length).toBeGreaterThan(0);
+
+    // Mark the stored row: a screen that recomputed from the readings would not see the mark.
+    const row = await db("unit_analysis").where({ unit_id: unitId }).first("summary");
+    const summary = typeof row.summary === "string" ? JSON.parse(row.summary) : row.summary;
+    await db("unit_analysis").where({ unit_id: unitId }).update({ summary: JSON.stringify({ ...summary, maxWearMm: 4.321 }) });
+    expect((await getUnitAnalysis(supt, unitId))!.summary.maxWearMm).toBe(4.321);
+  });
+
+  it("a unit whose row has no stored detail yet is computed and stored once", async () => {
+    const unitId = await newUnit();
+    await approvedOn(unitId, actor("engineer"), actor("chief"));
+    await db("unit_analysis").where({ unit_id: unitId }).update({ detail: null });
+    const data = (await getUnitAnalysis({ ...world.users.supt, vessels: "all" } as never, unitId))!;
+    expect(data.points).toHaveLength(1);
+    const row = await db("unit_analysis").where({ unit_id: unitId }).first("detail");
+    expect(row.detail).not.toBeNull();
   });
 });

@@ -1,10 +1,14 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { InspectionList } from "@/components/home/inspection-list";
 import { BandBadge, isBandKey, type BandKey } from "@/components/wear/band-badge";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requirePermission } from "@/lib/auth/session";
-import { listFleet } from "@/lib/fleet/queries";
-import { day, fixed, monthYear } from "@/lib/format";
+import { can } from "@/lib/auth/permissions";
+import { listFleet, listFleetWearRates } from "@/lib/fleet/queries";
+import { rateSpread } from "@/lib/fleet/rates";
+import { listAwaitingSuperintendent } from "@/lib/home/queries";
+import { day, fixed, monthYear, rate, rateText } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Fleet" };
 
@@ -12,7 +16,12 @@ const BAND_ORDER: BandKey[] = ["over_limit", "renew_before_next", "watch", "stea
 
 export default async function FleetPage() {
   const user = await requirePermission("fleet.read");
-  const vessels = await listFleet(user);
+  const [vessels, waiting, rates] = await Promise.all([
+    listFleet(user),
+    user.role === "superintendent" && can(user.role, "inspection.approve") ? listAwaitingSuperintendent(user) : Promise.resolve([]),
+    listFleetWearRates(user),
+  ]);
+  const spread = rateSpread(rates);
   return (
     <>
       <PageHeader eyebrow={vessels[0]?.companyName ?? "Fleet"} title="Fleet">
@@ -20,6 +29,21 @@ export default async function FleetPage() {
           {vessels.length} {vessels.length === 1 ? "vessel" : "vessels"}
         </span>
       </PageHeader>
+      {waiting.length ? (
+        <section aria-labelledby="waiting-for-you" className="mb-8">
+          <h2 id="waiting-for-you" className="mb-1 text-lg font-semibold">
+            Waiting for your approval <span className="num text-ink-faint">({waiting.length})</span>
+          </h2>
+          <p className="mb-3 text-sm text-ink-soft">Every chief engineer assigned to these vessels entered or submitted the record themselves, so it needs your check.</p>
+          <InspectionList rows={waiting} showBy empty="" />
+        </section>
+      ) : null}
+      {spread ? (
+        <p className="mb-4 text-sm text-ink-soft" data-testid="fleet-rate-spread">
+          Liner wear across the fleet&apos;s {spread.n} units with a rate: median <span className="num font-semibold text-ink">{rateText(spread.median)}</span>; 8 in
+          10 units between <span className="num">{rate(spread.p10)}</span> and <span className="num">{rateText(spread.p90)}</span>.
+        </p>
+      ) : null}
       {vessels.length === 0 ? (
         <Card className="p-6 text-ink-soft">No vessels are assigned to you yet. Ask your administrator to add you to a vessel.</Card>
       ) : (

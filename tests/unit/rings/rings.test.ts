@@ -1,6 +1,7 @@
 import { describe, expect, test } from "vitest";
 import type { RingInspection, RingReading } from "@/lib/rings/rings";
-import { analyseRings, normaliseClosedGap, ringState } from "@/lib/rings/rings";
+import { analyseRings, gapLinerIncrease, normaliseClosedGap, ringState } from "@/lib/rings/rings";
+import { correctTo20C } from "@/lib/wear/correction";
 import { RINGS } from "../data/profile";
 
 const reading = (overrides: Partial<RingReading> = {}): RingReading => ({
@@ -24,6 +25,38 @@ describe("normaliseClosedGap", () => {
     const r = normaliseClosedGap(measured, where, dd);
     expect(r.gapMm).toBeCloseTo(gap, 12);
     expect(r.basis).toBe(basis);
+  });
+});
+
+describe("the liner diameter where a gap was read in a worn part", () => {
+  test("a negative increase does not enlarge the gap: it is used as measured", () => {
+    // [derived] before, −0.3 mm gave 5.0 + π × 0.3 = 5.94 mm, a gap larger than the one read.
+    expect(normaliseClosedGap(5.0, "liner_worn", -0.3)).toEqual({ gapMm: 5.0, basis: "as_measured" });
+  });
+
+  test("a diameter under the nominal bore is refused with a plain reason", () => {
+    const r = gapLinerIncrease(900, 899.7);
+    expect(r.kind).toBe("invalid");
+    if (r.kind === "invalid") expect(r.message).toMatch(/under the 900\.00 mm nominal bore/);
+    // Within the gauge's 0.01 mm it counts as nominal.
+    expect(gapLinerIncrease(900, 899.995)).toEqual({ kind: "ok", increaseMm: 0 });
+    expect(gapLinerIncrease(900, null)).toEqual({ kind: "none" });
+  });
+
+  test("it is referred to 20 °C with the inspection's factor, like the bore readings", () => {
+    // [derived] D20 = R(1 + αg(Tg − 20)) / (1 + αl(Tl − 20)) with αg = 11.5e-6 at 24 °C and αl = 10.5e-6 at 45 °C.
+    const factor = correctTo20C(1, 11.5e-6, 24, 10.5e-6, 45);
+    const r = gapLinerIncrease(900, 900.6, factor);
+    expect(r.kind).toBe("ok");
+    if (r.kind === "ok") expect(r.increaseMm).toBeCloseTo((900.6 * (1 + 11.5e-6 * 4)) / (1 + 10.5e-6 * 25) - 900, 12);
+    // Read raw, the warm liner's 0.6 mm would be taken as about 0.41 mm more wear than there is.
+    if (r.kind === "ok") expect(r.increaseMm).toBeLessThan(0.45);
+  });
+
+  test("the ring analysis reports an under-nominal diameter and keeps the gap as read", () => {
+    const { rings, issues } = analyseRings(RINGS.slice(0, 1), at(20_000, [reading({ closedGapMm: 5.0, gapMeasuredIn: "liner_worn", linerDiameterIncreaseMm: -0.3 })]));
+    expect(rings[0].gap!.valueMm).toBe(5.0);
+    expect(issues).toContainEqual(expect.objectContaining({ kind: "invalid_value", position: 1 }));
   });
 });
 

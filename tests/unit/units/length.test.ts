@@ -39,9 +39,9 @@ describe("fixed-decimal formatting", () => {
     [-0.001, 2, "0.00"],
     [-0.25, 2, "-0.25"],
     [12.5, 0, "13"],
-    [null, 2, "—"],
-    [NaN, 2, "—"],
-    [Infinity, 2, "—"],
+    [null, 2, "–"],
+    [NaN, 2, "–"],
+    [Infinity, 2, "–"],
   ])("formatFixed(%s, %d) is %s", (value, decimals, text) => {
     expect(formatFixed(value, decimals)).toBe(text);
   });
@@ -49,7 +49,7 @@ describe("fixed-decimal formatting", () => {
   test.each([
     [0.42, "mm", "0.42 mm"],
     [0.42, "in", "0.0165 in"],
-    [null, "mm", "—"],
+    [null, "mm", "–"],
   ] as const)("formatLength(%s, %s) is %s", (mm, unit, text) => {
     expect(formatLength(mm, unit)).toBe(text);
   });
@@ -57,7 +57,7 @@ describe("fixed-decimal formatting", () => {
   test.each([
     [0.4237, undefined, "0.42 mm"],
     [0.04237, 3, "0.042 mm"],
-    [NaN, undefined, "—"],
+    [NaN, undefined, "–"],
   ])("formatMm(%s, %s) is %s", (mm, decimals, text) => {
     expect(formatMm(mm, decimals)).toBe(text);
   });

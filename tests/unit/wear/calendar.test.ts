@@ -106,7 +106,7 @@ describe("formatRunningHours", () => {
     [999, "999 h"],
     [1000, "1,000 h"],
     [-2500, "-2,500 h"],
-    [NaN, "—"],
+    [NaN, "–"],
   ])("%d → %s", (h, text) => {
     expect(formatRunningHours(h)).toBe(text);
   });

@@ -8,7 +8,7 @@ import { can } from "@/lib/auth/permissions";
 import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
 import { getEngine } from "@/lib/fleet/queries";
-import { day, fixed, hours, monthYear } from "@/lib/format";
+import { day, fixed, hours, monthYear, rate as wearRate } from "@/lib/format";
 import { logRunningHoursAction } from "@/lib/hours/actions";
 import { listRecentHours } from "@/lib/hours/queries";
 import { runningHoursPerDay } from "@/lib/wear/calendar";
@@ -57,7 +57,7 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
                 </div>
                 <div>
                   <dt className="text-xs text-ink-faint">Wear rate</dt>
-                  <dd className="num">{fixed(u.wearRate, 3)} <span className="text-ink-faint">mm/1000 h</span></dd>
+                  <dd className="num">{wearRate(u.wearRate)} <span className="text-ink-faint">mm/1000 h</span></dd>
                 </div>
                 <div>
                   <dt className="text-xs text-ink-faint">Wear limit reached</dt>
@@ -102,7 +102,7 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
                   {fixed(u.maxWearMm)} <span className="text-ink-faint">/ {fixed(limit)} mm</span>
                 </td>
                 <td className="num px-3 py-2.5 text-right">{fixed(u.maxOvalityMm)} mm</td>
-                <td className="num px-3 py-2.5 text-right">{fixed(u.wearRate, 3)}</td>
+                <td className="num px-3 py-2.5 text-right">{wearRate(u.wearRate)}</td>
                 <td className="num px-3 py-2.5">
                   {u.limitOn ? (
                     <>

@@ -15,11 +15,12 @@ import { toWearProfile } from "@/lib/inspections/context";
 import { listInspectionAudit } from "@/lib/inspections/audit-queries";
 import { getInspectionForUser } from "@/lib/inspections/queries";
 import { getStoredUnitSummary } from "@/lib/inspections/summary-queries";
-import { RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
+import { approvalFigures, approvalRefusal } from "@/lib/inspections/approval";
+import { correctionFactor, openCautions, RING_STATE_TEXT, ringLive, rodNutDeviation, submissionProblems, tallyStatus } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN_LABELS, STATE_LABELS } from "@/lib/inspections/schemas";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
 import { intervalRate } from "@/lib/wear/liner";
-import { normaliseClosedGap } from "@/lib/rings/rings";
+import { gapLinerIncrease, normaliseClosedGap } from "@/lib/rings/rings";
 import { OverLimitMark, CautionMark } from "@/components/inspections/marks";
 
 export const metadata: Metadata = { title: "Inspection" };
@@ -76,9 +77,27 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
   const missing = open ? submissionProblems(ctx, insp.draft) : [];
   const c = insp.draft.checklist;
   const dev = rodNutDeviation(profile, c.rodNutPressureBar);
+  const approval =
+    insp.state === "submitted"
+      ? approvalFigures({
+          wearLimitMm: profile.linerWearLimitMm,
+          inspectedOn: h.inspectedOn,
+          linerHours: h.linerHours,
+          maxWear: analysis.maxWear ? { wearMm: analysis.maxWear.wearMm, at: stationLabel(analysis.maxWear.stationKey) } : null,
+          previous: prev && since ? { maxWearMm: since.maxWearMm, linerHours: prev.linerHours, inspectedOn: prev.inspectedOn } : null,
+          hoursLog: ctx.hoursLog,
+          cautions: openCautions(ctx, insp.draft),
+        })
+      : undefined;
+  const approvalParties = { createdBy: insp.createdBy?.id ?? null, submittedBy: insp.submittedBy?.id ?? null };
+  // A chief engineer who entered or submitted this record is told who approves it instead.
+  const ownRecordNote = insp.state === "submitted" && can(user.role, "inspection.approve") ? approvalRefusal(user, approvalParties) : null;
+  const isAuthor = insp.createdBy?.id === user.id;
   const allowed = {
-    edit: can(user.role, "inspection.editDraft"),
-    approve: can(user.role, "inspection.approve"),
+    // A returned record is corrected by the crew, not by the chief who returned it.
+    edit: can(user.role, "inspection.editDraft") && (insp.state !== "returned" || isAuthor || !can(user.role, "inspection.return")),
+    discard: insp.state === "draft" && isAuthor && can(user.role, "inspection.editDraft"),
+    approve: can(user.role, "inspection.approve") && !approvalRefusal(user, approvalParties),
     return: can(user.role, "inspection.return"),
     amend: can(user.role, "inspection.amend"),
   };
@@ -119,7 +138,8 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <strong>Returned for correction:</strong> {insp.returnComment}
           </p>
         ) : null}
-        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} />
+        <WorkflowActions inspectionId={id} state={insp.state} allowed={allowed} approval={approval} />
+        {ownRecordNote ? <p className="text-sm text-ink-soft">{ownRecordNote}</p> : null}
         {open && missing.length ? <p className="text-sm text-ink-soft">{missing.length} item{missing.length === 1 ? "" : "s"} still to fill before it can be submitted.</p> : null}
       </div>
 
@@ -214,10 +234,9 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
             <tbody className="divide-y divide-ink-line/70">
               {profile.rings.map((spec) => {
                 const r = insp.draft.rings.find((x) => x.position === spec.position);
+                const increase = r?.gapMeasuredIn === "liner_worn" ? gapLinerIncrease(profile.boreMm, r.gapLinerDiameterMm, correctionFactor(profile, h.gaugeTempC, h.linerTempC)) : null;
                 const referred =
-                  r?.closedGapMm != null && r.gapMeasuredIn === "liner_worn" && r.gapLinerDiameterMm != null
-                    ? normaliseClosedGap(r.closedGapMm, "liner_worn", r.gapLinerDiameterMm - profile.boreMm).gapMm
-                    : null;
+                  r?.closedGapMm != null && increase?.kind === "ok" ? normaliseClosedGap(r.closedGapMm, "liner_worn", increase.increaseMm).gapMm : null;
                 const live = ringLive(spec, referred ?? r?.closedGapMm ?? null, r?.grooveClearanceMm ?? null);
                 const tone = (s: typeof live.gap) => (s === "at_or_over_limit" ? "font-semibold text-limit" : s === "below_new_range" ? "text-caution" : "");
                 return (
@@ -232,13 +251,13 @@ export default async function InspectionPage({ params }: { params: Promise<{ ins
                     <td className="num px-2 py-2 text-right align-top sm:px-3">
                       {r?.closedGapMm != null ? <span className={tone(live.gap)}>{live.gap === "at_or_over_limit" ? <OverLimitMark /> : null}{fixed(r.closedGapMm)} mm</span> : "–"}
                       {live.gap ? <span className="block text-xs whitespace-normal text-ink-faint">{RING_STATE_TEXT[live.gap]} (limit {fixed(spec.gapLimitMm)} mm)</span> : null}
-                      {r ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
+                      {r?.gapMeasuredIn ? <span className="block text-xs whitespace-normal text-ink-faint md:hidden">in {GAP_MEASURED_IN_LABELS[r.gapMeasuredIn].toLowerCase()}</span> : null}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint md:hidden">{fixed(referred)} mm in a gauge ring</span>
                       ) : null}
                     </td>
                     <td className="hidden px-3 py-2 align-top md:table-cell">
-                      {r ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
+                      {r?.gapMeasuredIn ? GAP_MEASURED_IN_LABELS[r.gapMeasuredIn] : "–"}
                       {referred !== null ? (
                         <span className="num block text-xs text-ink-faint">
                           at {fixed(r!.gapLinerDiameterMm)} mm; {fixed(referred)} mm in a gauge ring

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
+import { notFound, redirect } from "next/navigation";
 import { NewInspectionForm } from "@/components/inspections/new-inspection-form";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
@@ -12,9 +12,9 @@ import { parseRecordId } from "@/lib/validation/ids";
 
 export const metadata: Metadata = { title: "New inspection" };
 
-export default async function NewInspectionPage({ searchParams }: { searchParams: Promise<{ unit?: string }> }) {
+export default async function NewInspectionPage({ searchParams }: { searchParams: Promise<{ unit?: string; discarded?: string }> }) {
   const user = await requirePermission("inspection.create");
-  const { unit } = await searchParams;
+  const { unit, discarded } = await searchParams;
   const today = new Date().toISOString().slice(0, 10);
 
   if (!unit) {
@@ -24,6 +24,11 @@ export default async function NewInspectionPage({ searchParams }: { searchParams
     return (
       <>
         <PageHeader title="New inspection" eyebrow="Choose the unit you are overhauling" />
+        {discarded ? (
+          <p role="status" className="mb-4 rounded-md border-2 border-ink bg-paper-raised p-3">
+            The draft was discarded. Choose the unit you are overhauling.
+          </p>
+        ) : null}
         {units.length === 0 ? <Card className="p-5 text-ink-soft">No units on your vessels.</Card> : null}
         <div className="space-y-6">
           {[...byEngine.values()].map((list) => (
@@ -36,8 +41,12 @@ export default async function NewInspectionPage({ searchParams }: { searchParams
                   <li key={u.id}>
                     <Link href={`/inspections/new?unit=${u.id}`} className="block min-h-12 rounded-md border border-ink-line bg-paper-raised p-3 hover:border-signal">
                       <span className="block font-semibold">Cylinder {u.cylinderNo}</span>
-                      <span className="block text-sm text-ink-faint">last gauged {day(u.lastInspectedOn)}</span>
-                      {u.nextOverhaulEngineHours ? <span className="num block text-sm text-ink-faint">next overhaul at {hours(u.nextOverhaulEngineHours)} engine h</span> : null}
+                      <span className="block text-sm text-ink-soft">last gauged {day(u.lastInspectedOn)}</span>
+                      {u.nextOverhaulEngineHours ? (
+                        <span className="block text-sm text-ink-soft">
+                          next overhaul at <span className="num">{hours(u.nextOverhaulEngineHours)} engine h</span>
+                        </span>
+                      ) : null}
                     </Link>
                   </li>
                 ))}
@@ -53,6 +62,9 @@ export default async function NewInspectionPage({ searchParams }: { searchParams
   const ctx = unitId === null ? null : await getNewInspectionContext(user, unitId, today);
   if (!ctx) notFound();
   const open = await listOpenInspections(ctx.unit.id);
+  // One open draft per unit: it opens instead of a form for a second one (the server holds to that too).
+  const draft = open.find((o) => (o.state === "draft" || o.state === "returned") && o.supersedesId === null);
+  if (draft) redirect(`/inspections/${draft.id}/edit?opened=existing`);
 
   return (
     <>

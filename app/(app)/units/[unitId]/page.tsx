@@ -7,12 +7,13 @@ import { BandBadge, BandIcon } from "@/components/wear/band-badge";
 import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
+import { DataTable } from "@/components/wear/data-table";
 import { WearTable } from "@/components/wear/wear-table";
 import { getUnitAnalysis } from "@/lib/analysis/queries";
 import { can } from "@/lib/auth/permissions";
 import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
-import { day, fixed, hours, spread } from "@/lib/format";
+import { day, fixed, hours, hoursText, mm, rate, spread } from "@/lib/format";
 
 export const metadata: Metadata = { title: "Unit history" };
 
@@ -31,9 +32,14 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
   if (!data) notFound();
   const { context: ctx, summary, profile } = data;
   const currentLiner = data.liners.find((l) => !l.removedOn) ?? null;
-  const latestSeries = data.series.at(-1) ?? null;
+  const latestSeries = data.latest;
   const stationLabel = (key: string | null) => profile.stations.find((s) => s.key === key)?.label ?? key ?? "–";
+  const axisLabel = (key: string) => profile.axes.find((a) => a.key === key)?.label.toLowerCase() ?? key;
   const wearProjection = summary.wear.kind === "projected" ? summary.wear : null;
+  const excludedMax = data.points.filter((p) => p.maxWearExcluded);
+  const pointOf = new Map(data.points.map((p) => [p.inspectionId, p]));
+  const ringSpec = (position: number) => profile.rings.find((s) => s.position === position);
+  const ringRows = data.rings?.rings ?? [];
 
   return (
     <>
@@ -61,14 +67,20 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
         </ul>
       ) : null}
 
-      <Card className="mb-6 grid grid-cols-2 gap-x-4 gap-y-5 p-4 md:grid-cols-3 xl:grid-cols-6">
+      <Card className="mb-6 grid grid-cols-2 gap-x-4 gap-y-5 p-4 md:grid-cols-3 xl:grid-cols-7">
         <Stat label="Liner" value={<span className="font-mono text-base">{currentLiner?.serial ?? "–"}</span>} hint={currentLiner ? `fitted ${day(currentLiner.installedOn)}` : undefined} />
         <Stat label="Liner hours" value={hours(summary.linerHours)} unit="h" hint={summary.lastInspectedOn ? `at last gauging, ${day(summary.lastInspectedOn)}` : "not gauged yet"} />
+        <Stat
+          label="Next overhaul"
+          value={hours(summary.nextOverhaulEngineHours)}
+          unit="h"
+          hint={summary.lastEngineHours != null ? `engine hours; last overhaul at ${hoursText(summary.lastEngineHours)}` : "engine hours, as planned"}
+        />
         <Stat label="Max wear" value={fixed(summary.maxWearMm)} unit="mm" hint={`limit ${fixed(profile.linerWearLimitMm)} mm · at ${stationLabel(summary.maxWearStation)}`} />
         <Stat label="Max ovality" value={fixed(summary.maxOvalityMm)} unit="mm" hint={`limit ${fixed(profile.ovalityLimitMm)} mm`} />
         <Stat
           label="Wear rate (trend)"
-          value={summary.trend ? fixed(summary.trend.slopeMmPer1000h, 3) : "–"}
+          value={summary.trend ? rate(summary.trend.slopeMmPer1000h) : "–"}
           unit="mm/1000 h"
           hint={
             summary.trend
@@ -76,7 +88,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
               : "needs readings past running-in"
           }
         />
-        <Stat label="Last interval" value={fixed(summary.lastIntervalRate, 3)} unit="mm/1000 h" />
+        <Stat label="Last interval" value={rate(summary.lastIntervalRate)} unit="mm/1000 h" />
       </Card>
 
       <section className="mb-6 grid gap-6 lg:grid-cols-2 [&>*]:min-w-0">
@@ -87,7 +99,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
           </p>
           <TrendChart
             label="Maximum wear"
-            points={data.points.map((p) => ({ linerHours: p.linerHours, valueMm: p.maxWearMm, steady: p.steady, outlier: p.wearOutlier, date: p.date }))}
+            points={data.points.map((p) => ({ linerHours: p.linerHours, valueMm: p.maxWearMm, steady: p.steady, outlier: p.wearOutlier, date: p.date, maxExcluded: p.maxWearExcluded }))}
             fit={data.fit}
             limitMm={profile.linerWearLimitMm}
             projection={wearProjection ? { atLinerHours: wearProjection.atLinerHours, lowerHours: wearProjection.lowerHours, upperHours: wearProjection.upperHours } : null}
@@ -98,6 +110,17 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
             the fit. The shaded band is the 95 % prediction interval; the bar on the limit line is the 95 % interval of the liner hours at which
             the limit is reached (inverse prediction, Draper &amp; Smith, <i>Applied Regression Analysis</i>).
           </p>
+          {excludedMax.length ? (
+            <ul className="mt-2 space-y-1 text-sm" data-testid="trend-excluded">
+              {excludedMax.map((p) => (
+                <li key={p.inspectionId}>
+                  <span className="font-semibold text-limit">▢ {day(p.date)}:</span> the largest reading,{" "}
+                  {p.excluded[0] ? `${mm(p.excluded[0].correctedMm)} at ${stationLabel(p.excluded[0].stationKey)} ${axisLabel(p.excluded[0].axisKey)}` : "one cell"}, was
+                  judged impossible and left out; the point shows the next-largest, {mm(p.maxWearMm)}. Check that gauging.
+                </li>
+              ))}
+            </ul>
+          ) : null}
         </Card>
         <Card className="p-4">
           <h2 className="font-semibold">Liner profile</h2>
@@ -107,13 +130,13 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
           </p>
           <ProfileChart
             limitMm={profile.linerWearLimitMm}
-            series={data.series.map((s) => ({
+            series={data.profileSeries.map((s) => ({
               id: s.inspectionId,
               label: day(s.date),
               points: profile.stations
                 .map((st) => {
-                  const cells = s.cells.filter((c) => c.stationKey === st.key && c.usable);
-                  return cells.length ? { depthMm: st.depthMm, wearMm: Math.max(...cells.map((c) => c.wearMm)) } : null;
+                  const worst = s.stations.find((c) => c.stationKey === st.key);
+                  return worst ? { depthMm: st.depthMm, wearMm: worst.wearMm } : null;
                 })
                 .filter((p): p is { depthMm: number; wearMm: number } => p !== null),
             }))}
@@ -146,86 +169,108 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
       {data.rings ? (
         <section className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">Piston rings at the last overhaul</h2>
-          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-            <table className="w-full text-sm sm:min-w-[640px]">
-              <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
-                <tr>
-                  <th className="px-3 py-2" scope="col">Ring</th>
-                  <th className="px-3 py-2 text-right" scope="col">Closed gap</th>
-                  <th className="hidden px-3 py-2 text-right sm:table-cell" scope="col">Gap limit</th>
-                  <th className="px-3 py-2 text-right" scope="col">Groove clearance</th>
-                  <th className="hidden px-3 py-2 text-right sm:table-cell" scope="col">Groove limit</th>
-                  <th className="px-3 py-2" scope="col">Verdict</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-ink-line/70">
-                {data.rings.rings.map((r) => {
-                  const spec = profile.rings.find((s) => s.position === r.position);
-                  return (
-                    <tr key={r.position}>
-                      <th scope="row" className="px-3 py-2 text-left font-medium">{r.position === 1 ? "1 (top)" : r.position}</th>
-                      <td className="num px-3 py-2 text-right align-top">
-                        {r.gap ? `${fixed(r.gap.valueMm)} mm` : "–"}
-                        {spec ? <span className="block text-xs text-ink-faint sm:hidden">limit {fixed(spec.gapLimitMm)}</span> : null}
-                      </td>
-                      <td className="num hidden px-3 py-2 text-right text-ink-faint sm:table-cell">{spec ? `${fixed(spec.gapLimitMm)} mm` : "–"}</td>
-                      <td className="num px-3 py-2 text-right align-top">
-                        {r.groove ? `${fixed(r.groove.valueMm)} mm` : "–"}
-                        {spec ? <span className="block text-xs text-ink-faint sm:hidden">limit {fixed(spec.grooveLimitMm)}</span> : null}
-                      </td>
-                      <td className="num hidden px-3 py-2 text-right text-ink-faint sm:table-cell">{spec ? `${fixed(spec.grooveLimitMm)} mm` : "–"}</td>
-                      <td className="px-3 py-2">
-                        {r.overLimit ? (
-                          <span className="inline-flex items-center gap-1 font-semibold text-limit"><BandIcon band="over_limit" /> Over limit — renew</span>
-                        ) : r.renew ? (
-                          <span className="inline-flex items-center gap-1 font-semibold text-caution"><BandIcon band="renew_before_next" /> Renew at this overhaul</span>
-                        ) : (
-                          <span className="inline-flex items-center gap-1 text-steady"><BandIcon band="steady" /> Runs on</span>
-                        )}
-                        {r.reasons.length ? <span className="block text-xs text-ink-faint">{r.reasons.join(" ")}</span> : null}
-                      </td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
+          <DataTable
+            testId="unit-rings"
+            caption="Piston rings at the last overhaul"
+            minWidthClass="sm:min-w-[640px]"
+            rows={ringRows}
+            rowKey={(r) => r.position}
+            columns={[
+              { key: "ring", header: "Ring", rowHeader: true, cell: (r) => (r.position === 1 ? "1 (top)" : r.position) },
+              {
+                key: "gap",
+                header: "Closed gap",
+                align: "right",
+                numeric: true,
+                cell: (r) => (
+                  <>
+                    {r.gap ? mm(r.gap.valueMm) : "–"}
+                    {ringSpec(r.position) ? <span className="block text-xs text-ink-faint sm:hidden">limit {fixed(ringSpec(r.position)!.gapLimitMm)}</span> : null}
+                  </>
+                ),
+              },
+              { key: "gapLimit", header: "Gap limit", align: "right", numeric: true, hideBelow: "sm", className: "text-ink-faint", cell: (r) => mm(ringSpec(r.position)?.gapLimitMm) },
+              {
+                key: "groove",
+                header: "Groove clearance",
+                align: "right",
+                numeric: true,
+                cell: (r) => (
+                  <>
+                    {r.groove ? mm(r.groove.valueMm) : "–"}
+                    {ringSpec(r.position) ? <span className="block text-xs text-ink-faint sm:hidden">limit {fixed(ringSpec(r.position)!.grooveLimitMm)}</span> : null}
+                  </>
+                ),
+              },
+              { key: "grooveLimit", header: "Groove limit", align: "right", numeric: true, hideBelow: "sm", className: "text-ink-faint", cell: (r) => mm(ringSpec(r.position)?.grooveLimitMm) },
+              {
+                key: "verdict",
+                header: "Verdict",
+                cell: (r) => (
+                  <>
+                    {r.overLimit ? (
+                      <span className="inline-flex items-center gap-1 font-semibold text-limit"><BandIcon band="over_limit" /> Over limit — renew</span>
+                    ) : r.renew ? (
+                      <span className="inline-flex items-center gap-1 font-semibold text-caution"><BandIcon band="renew_before_next" /> Renew at this overhaul</span>
+                    ) : (
+                      <span className="inline-flex items-center gap-1 text-steady"><BandIcon band="steady" /> Runs on</span>
+                    )}
+                    {r.reasons.length ? <span className="block text-xs text-ink-faint">{r.reasons.join(" ")}</span> : null}
+                  </>
+                ),
+              },
+            ]}
+          />
         </section>
       ) : null}
 
       <section className="grid gap-6 lg:grid-cols-3">
         <div className="min-w-0 lg:col-span-2">
           <h2 className="mb-2 text-lg font-semibold">Overhauls</h2>
-          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-            <table className="w-full text-sm sm:min-w-[560px]">
-              <thead className="bg-paper-sunk text-left text-xs uppercase tracking-wide text-ink-soft">
-                <tr>
-                  <th className="px-3 py-2" scope="col">Date</th>
-                  <th className="hidden px-3 py-2 text-right sm:table-cell" scope="col">Engine hours</th>
-                  <th className="px-3 py-2 text-right" scope="col">Liner hours</th>
-                  <th className="px-3 py-2 text-right" scope="col">Max wear</th>
-                  <th className="px-3 py-2" scope="col">State</th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-ink-line/70">
-                {data.inspections.map((i) => {
-                  const p = data.points.find((pt) => pt.inspectionId === String(i.id));
-                  return (
-                    <tr key={i.id}>
-                      <td className="num px-3 py-2"><Link href={`/inspections/${i.id}`} className="font-medium text-signal hover:underline">{day(i.inspectedOn)}</Link></td>
-                      <td className="num hidden px-3 py-2 text-right sm:table-cell">{hours(i.engineHours)} h</td>
-                      <td className="num px-3 py-2 text-right">{hours(i.linerHours)} h</td>
-                      <td className="num px-3 py-2 text-right">{p ? `${fixed(p.maxWearMm)} mm` : "–"}</td>
-                      <td className="px-3 py-2">
-                        {STATE_LABELS[i.state] ?? i.state}
-                        {i.version > 1 ? <span className="text-ink-faint"> · v{i.version}</span> : null}
-                      </td>
-                    </tr>
+          <DataTable
+            testId="unit-overhauls"
+            caption="Overhauls"
+            minWidthClass="sm:min-w-[560px]"
+            rows={data.inspections}
+            rowKey={(i) => i.id}
+            columns={[
+              {
+                key: "date",
+                header: "Date",
+                numeric: true,
+                cell: (i) => <Link href={`/inspections/${i.id}`} className="inline-flex min-h-11 items-center font-medium text-signal hover:underline">{day(i.inspectedOn)}</Link>,
+              },
+              { key: "engine", header: "Engine hours", align: "right", numeric: true, hideBelow: "sm", cell: (i) => hoursText(i.engineHours) },
+              { key: "liner", header: "Liner hours", align: "right", numeric: true, cell: (i) => hoursText(i.linerHours) },
+              {
+                key: "wear",
+                header: "Max wear",
+                align: "right",
+                numeric: true,
+                cell: (i) => {
+                  const p = pointOf.get(String(i.id));
+                  return p ? (
+                    <>
+                      {mm(p.maxWearMm)}
+                      {p.maxWearExcluded ? <span className="block text-xs text-limit">largest reading left out</span> : null}
+                    </>
+                  ) : (
+                    "–"
                   );
-                })}
-              </tbody>
-            </table>
-          </div>
+                },
+              },
+              {
+                key: "state",
+                header: "State",
+                cell: (i) => (
+                  <>
+                    {STATE_LABELS[i.state] ?? i.state}
+                    {i.version > 1 ? <span className="text-ink-faint"> · v{i.version}</span> : null}
+                  </>
+                ),
+              },
+            ]}
+          />
         </div>
         <div>
           <h2 className="mb-2 text-lg font-semibold">Liners in this unit</h2>
@@ -235,7 +280,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
                 <Card className="p-3 text-sm">
                   <div className="font-mono">{l.serial}</div>
                   <div className="num text-ink-soft">
-                    fitted {day(l.installedOn)} at {hours(l.installedEngineHours)} engine h
+                    fitted {day(l.installedOn)} at {hoursText(l.installedEngineHours)} on the engine
                   </div>
                   {l.removedOn ? (
                     <div className="text-ink-soft">

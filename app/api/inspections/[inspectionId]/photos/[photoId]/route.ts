@@ -16,7 +16,8 @@ export const GET = withRoute<P>(
     const photo = await getPhotoObjects(inspectionIdOf(params), parseId(params.photoId, "Photo"));
     if (!photo || photo.status !== "stored") throw notFound("Photo not found.");
     const thumb = new URL(req.url).searchParams.get("variant") === "thumb" && photo.thumbKey;
-    const url = thumb ? await presignRead(photo.thumbKey!, "image/jpeg") : await presignRead(photo.objectKey, photo.contentType, photo.originalName);
+    const photoId = parseId(params.photoId, "Photo");
+    const url = thumb ? await presignRead(photo.thumbKey!, "image/jpeg", `photo-${photoId}-preview`) : await presignRead(photo.objectKey, photo.contentType, `photo-${photoId}`);
     return NextResponse.redirect(url, { status: 302, headers: { "cache-control": "private, max-age=60" } });
   },
   { vesselOf: vesselOfInspection },

@@ -1,1 +1,0 @@
-export { PageSkeleton as default } from "@/components/layout/page-skeleton";
