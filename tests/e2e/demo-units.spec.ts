@@ -17,6 +17,7 @@ async function noSidewaysScroll(page: Page) {
 
 test.describe("[SUPERINTENDENT][DEMO] the demo's designed units read as designed", () => {
   test("the unit whose liner was renewed lists both liners, the old one with its reason, at every width", async ({ page }) => {
+    test.setTimeout(150_000); // three full-page screenshots of a long page
     await signIn(page, DEMO.superintendent);
     await openUnit(page, "Brisemer Tern", 2);
     const liners = page.locator("h2", { hasText: "Liners in this unit" }).locator("xpath=following-sibling::ul/li");
