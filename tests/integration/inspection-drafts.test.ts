@@ -179,8 +179,8 @@ describe("discarding a draft", () => {
     const chief = await discard("chief", d.id);
     expect(chief.status).toBe(403);
     expect(chief.body.error).toMatch(/Only the person who opened this draft/);
-    // Crew of another vessel are refused before the draft is looked at.
-    expect((await discard("engineer2", d.id)).status).toBe(403);
+    // Crew of another vessel get the same 404 as for a draft that does not exist.
+    expect((await discard("engineer2", d.id)).status).toBe(404);
     await submitInspection(actor("engineer"), d.id, d.revision);
     const submitted = await discard("engineer", d.id);
     expect(submitted.status).toBe(409);

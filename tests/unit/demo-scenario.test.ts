@@ -48,14 +48,14 @@ describe("demo scenario (invented data)", () => {
     expect(first.inspections).toEqual(sc.inspections.filter((i) => i.unitKey.startsWith("v1/")));
   });
 
-  // Its speed is for `npm run bench` (the seed prints its time); a timed test would fail on a busy machine.
-  it("generates a large fleet one vessel at a time", () => {
+  // How fast the large fleet is generated is the benchmark's business (npm run bench), not a test's.
+  it("generates a large fleet one vessel at a time", { timeout: 120_000 }, () => {
     const big = buildScenario({ scale: 50 });
     let readings = 0;
     for (const b of vesselsOf(big)) readings += b.linerReadings.length;
     expect(big.vesselPlans).toHaveLength(250);
     expect(readings).toBeGreaterThan(80_000);
-  }, 120_000);
+  });
 });
 
 describe.each([DEFAULT_SEED, 7, 1234])("demo scenario, seed %i", (seed) => {
