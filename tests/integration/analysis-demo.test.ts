@@ -82,8 +82,8 @@ describe("analysis of the demo fleet against the real database", () => {
     for (const key of scenario.specials.nearLimitUnitKeys) expect(await bandOf(key)).toBe("renew_before_next");
     const designed = new Set(scenario.units.filter((u) => u.demoCases.length > 0).map((u) => u.key));
     const counts: Record<string, number> = {};
-    let withTrend = 0;
-    let steady = 0;
+    let threePoint = 0;
+    let threePointSteady = 0;
     for (const u of scenario.units.filter((x) => !designed.has(x.key))) {
       const row = await db("unit_analysis").where({ unit_id: await unitIdOf(u.key) }).first("band", "summary");
       const summary = typeof row.summary === "string" ? JSON.parse(row.summary) : row.summary;
@@ -91,15 +91,17 @@ describe("analysis of the demo fleet against the real database", () => {
       if (summary.trend === null) {
         // Too young for a projection: fewer than three gaugings past running-in.
         expect(row.band).toBe("unknown");
-        continue;
+      } else if (summary.trend.n >= 4) {
+        expect(row.band).toBe("steady");
+      } else {
+        // With three points the 95 % interval is wide (the t quantile with one degree of freedom
+        // is 12.71, NIST/SEMATECH e-Handbook table of t critical values [src]), so its early end
+        // may fall before the next overhaul and band the unit "renew before next overhaul".
+        threePoint++;
+        if (row.band === "steady") threePointSteady++;
       }
-      withTrend++;
-      if (row.band === "steady") steady++;
     }
-    // A few units may land in "renew before next overhaul" on the early end of a wide 95 %
-    // interval: with three points the t quantile has one degree of freedom (12.71, NIST/SEMATECH
-    // e-Handbook table of t critical values [src]).
-    expect(steady / withTrend).toBeGreaterThanOrEqual(0.85);
+    expect(threePointSteady / threePoint).toBeGreaterThanOrEqual(0.5);
     expect(counts.unknown).toBeGreaterThanOrEqual(3);
   });
 

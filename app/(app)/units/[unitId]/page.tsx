@@ -283,8 +283,9 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
                     fitted {day(l.installedOn)} at {hoursText(l.installedEngineHours)} on the engine
                   </div>
                   {l.removedOn ? (
-                    <div className="num text-ink-soft">
-                      removed {day(l.removedOn)}
+                    <div className="text-ink-soft">
+                      {/* Only the date keeps to one line: a long reason wraps instead of widening the page. */}
+                      <span className="num">removed {day(l.removedOn)}</span>
                       {l.removalReason ? ` — ${l.removalReason}` : ""}
                     </div>
                   ) : (
