@@ -66,8 +66,10 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
       expect((await (await page.request.get(`/api/inspections/${inspectionId}`)).json()).draft.header.engineHours).toBe(hours);
 
       // Every cell the same value: said once, with one confirmation for the whole sheet.
-      for (const [ai] of axes.entries()) await fillColumn(page, ai, stations.map(() => "600.40"));
-      await expect(page.getByTestId("sheet-findings").getByText(/Every cell holds the same value, 600\.40 mm/)).toHaveCount(1);
+      const bore = analysis.profile.boreMm.toFixed(2);
+      const same = (analysis.profile.boreMm + 0.4).toFixed(2);
+      for (const [ai] of axes.entries()) await fillColumn(page, ai, stations.map(() => same));
+      await expect(page.getByTestId("sheet-findings").getByText(`Every cell holds the same value, ${same} mm`)).toHaveCount(1);
       await expect(page.getByTestId("submit-problems").getByText(/Every cell holds the same value/)).toHaveCount(1);
       await expect(page.getByRole("button", { name: "The reading is right — confirm" })).toHaveCount(0);
       await noSidewaysScroll(page);
@@ -86,7 +88,7 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
       const good = up(stations[1].key, axes[0].key);
       await page.locator("#cell-1-0").fill(good.slice(0, 2) + good.slice(3));
       const cellError = page.getByTestId("cell-error");
-      await expect(cellError).toContainText("a tenth of the 600.00 mm bore");
+      await expect(cellError).toContainText(`a tenth of the ${bore} mm bore`);
       await expect(cellError).toContainText("This cannot be confirmed");
       await expect(page.locator("#cell-1-0-help").getByRole("button", { name: /confirm/ })).toHaveCount(0);
       await shot(page, "sheet-impossible-tablet");
@@ -177,7 +179,8 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
     test("an ambiguous comma is asked about, an impossible value is refused, nothing scrolls sideways", async ({ page }) => {
       test.setTimeout(120_000);
       await signIn(page, DEMO.engineer);
-      const { inspectionId } = await openSheet(page, /Cylinder 6\b/);
+      const { inspectionId, analysis } = await openSheet(page, /Cylinder 6\b/);
+      const bore = analysis.profile.boreMm.toFixed(2);
 
       // "1,250" in a field with nothing to settle it: asked, with one tap for each reading.
       await page.locator("#h-gauge").fill("1,250");
@@ -194,8 +197,9 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
       await page.locator("#h-gauge").fill("20");
 
       // An impossible diameter: an error, never a confirm button.
-      await page.locator("#cell-0-0").fill("60.04");
-      await expect(page.getByTestId("cell-error")).toContainText("a tenth of the 600.00 mm bore");
+      const slipped = (analysis.profile.boreMm / 10 + 0.004).toFixed(2); // a digit dropped: 64.00 for 640.04
+      await page.locator("#cell-0-0").fill(slipped);
+      await expect(page.getByTestId("cell-error")).toContainText(`a tenth of the ${bore} mm bore`);
       await expect(page.locator("#cell-0-0-help").getByRole("button", { name: /confirm/ })).toHaveCount(0);
       await noSidewaysScroll(page);
       await shot(page, "sheet-impossible-phone");
@@ -203,7 +207,7 @@ test.describe("[ENGINEER][CHIEF][SHEET] the sheet catches mistakes", () => {
       // The draft keeps what was typed; the server would not take it into a record.
       const res = await page.request.post(`/api/inspections/${inspectionId}/submit`, { headers: { origin: new URL(page.url()).origin }, data: {} });
       expect(res.status()).toBe(400);
-      expect(JSON.stringify(await res.json())).toMatch(/about a tenth of the 600\.00 mm bore/);
+      expect(JSON.stringify(await res.json())).toContain(`about a tenth of the ${bore} mm bore`);
     });
   });
 });
