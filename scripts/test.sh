@@ -71,5 +71,5 @@ node --conditions=react-server --import tsx scripts/seed.ts --if-empty >/dev/nul
 npx next build >"$RESULTS/build.log" 2>&1 || { tail -n 40 "$RESULTS/build.log"; fail "next build failed"; }
 PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" npx playwright test --reporter=list,json $TEST_FILTER || status=1
 
-node scripts/test-summary.mjs "$RESULTS" || status=1
+node scripts/test-summary.mjs "$RESULTS" --only "$TEST_SUITES" || status=1
 exit "$status"
