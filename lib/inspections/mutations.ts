@@ -381,8 +381,8 @@ export async function amendInspection(actor: Actor, id: number, reason: string, 
         [newId, id],
       );
       await trx.raw(
-        `INSERT INTO ring_readings (inspection_id, ring_position, closed_gap_mm, gap_measured_in, groove_clearance_mm, renewed, \`condition\`)
-         SELECT ?, ring_position, closed_gap_mm, gap_measured_in, groove_clearance_mm, renewed, \`condition\` FROM ring_readings WHERE inspection_id = ?`,
+        `INSERT INTO ring_readings (inspection_id, ring_position, closed_gap_mm, gap_measured_in, gap_liner_diameter_mm, groove_clearance_mm, renewed, \`condition\`)
+         SELECT ?, ring_position, closed_gap_mm, gap_measured_in, gap_liner_diameter_mm, groove_clearance_mm, renewed, \`condition\` FROM ring_readings WHERE inspection_id = ?`,
         [newId, id],
       );
       await trx.raw(

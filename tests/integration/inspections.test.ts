@@ -476,5 +476,11 @@ describe("a closed gap measured in a worn part of the liner", () => {
     const increase = correctTo20C(bore + 0.5, created.ctx.profile.alphaGaugePerK, 24, created.ctx.profile.alphaLinerPerK, 31) - bore;
     expect(top.gapMm).toBeCloseTo(spec.gapLimitMm + 1.2 - Math.PI * increase, 2);
     expect(top.overLimit).toBe(false);
+
+    // An amendment starts from the whole record, the liner diameter at the gap included.
+    const amend = await call("chief", amendRoute, "POST", `/api/inspections/${id}/amend`, { reason: "Recheck the top ring gap", clientToken: randomToken(24) }, id);
+    expect(amend.status).toBe(201);
+    const amended = await get(amend.body.id as number);
+    expect(amended.draft.rings[0]).toMatchObject({ gapMeasuredIn: "liner_worn", gapLinerDiameterMm: bore + 0.5 });
   });
 });
