@@ -9,7 +9,7 @@ import { enterMovesToNextField, FieldError, Input, Label } from "@/components/ui
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import type { InspectionContext } from "@/lib/inspections/context";
 import { parseDecimal, randomToken } from "@/lib/inspections/form";
-import { checkHours, derivedLinerHours, linerHoursDiffer } from "@/lib/inspections/rules";
+import { checkHours, derivedLinerHours, linerHoursDiffer } from "@/lib/inspections/hours-rules";
 import type { newInspectionFormSchema } from "@/lib/inspections/schemas";
 import { day } from "@/lib/format";
 import { formatRunningHours } from "@/lib/wear/calendar";
