@@ -192,7 +192,10 @@ export function analyseLiner(
 
 /** Wear rate between two gaugings, in mm per 1000 liner hours; null unless the liner hours rose. */
 export function intervalRate(fromWearMm: number, fromLinerHours: number, toWearMm: number, toLinerHours: number): number | null {
-  return toLinerHours > fromLinerHours ? ((toWearMm - fromWearMm) * 1000) / (toLinerHours - fromLinerHours) : null;
+  // Under one running hour apart there is no rate to speak of (and a vanishing interval would divide to infinity).
+  if (!(toLinerHours - fromLinerHours >= 1)) return null;
+  const rate = ((toWearMm - fromWearMm) * 1000) / (toLinerHours - fromLinerHours);
+  return Number.isFinite(rate) ? rate : null;
 }
 
 /** The profile's gauge resolution, or 0.01 mm when it gives none (or an unusable one). */
