@@ -41,6 +41,14 @@ export const API_ROUTE_RULES = {
   "POST /api/inspections/[inspectionId]/photos/complete": { permission: "photo.upload", vesselScoped: true },
   "GET /api/inspections/[inspectionId]/photos/[photoId]": { permission: "fleet.read", vesselScoped: true },
   "DELETE /api/inspections/[inspectionId]/photos/[photoId]": { permission: "photo.upload", vesselScoped: true },
+  // imports from files (the vessel named in the body or query, or the import's vessel)
+  "POST /api/imports/uploads": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports": { permission: "import.create", vesselScoped: true },
+  "GET /api/imports": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]/file": { permission: "fleet.read", vesselScoped: true },
+  "POST /api/imports/[importId]/commit": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports/[importId]/approve": { permission: "inspection.approve", vesselScoped: true },
 } as const satisfies Record<string, AccessRule>;
 
 export const ACTION_RULES = {
