@@ -10,6 +10,13 @@ trap 'exit 130' INT TERM
 ensure_node_modules
 ensure_mariadb
 start_mariadb "$ROOT/.bench-data/mariadb" "$DB_PORT" "$DB_NAME" "$DB_USER" "$DB_PASSWORD"
+# The importer's benchmark stores its files: the S3 fake, on ports of the benchmark's own.
+export S3_FAKE_PORT="${BENCH_S3_PORT:-4589}" SMTP_FAKE_PORT="${BENCH_SMTP_PORT:-2545}" S3_FAKE_DIR="$ROOT/.bench-data/s3" MAIL_FAKE_DIR="$ROOT/.bench-data/mail"
+export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT" SMTP_PORT="$SMTP_FAKE_PORT"
+port_free "$S3_FAKE_PORT" "the benchmark's S3 fake"
+node --import tsx scripts/fakes.ts >/dev/null &
+STARTED_PIDS+=("$!")
+wait_port "$S3_FAKE_PORT" "the benchmark's S3 fake" 20 "$!"
 NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev/null
 node --conditions=react-server --import tsx scripts/seed.ts --if-empty --scale "${BENCH_SCALE:-200}" --no-recompute
 # Timed as the product runs it: bundled ahead of time (as the Next.js server bundle is), not

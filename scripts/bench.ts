@@ -11,6 +11,7 @@ import config from "../knexfile";
 import { loadUnitInputs } from "../lib/analysis/load";
 import { loadProfiles } from "../lib/profiles/queries";
 import { recomputeAllUnits } from "../lib/analysis/recompute";
+import { benchImport } from "./bench-import";
 
 const db = knex({ ...config, pool: { min: 1, max: 4 } });
 
@@ -34,6 +35,14 @@ const counts = {
   readings: Number((await db("liner_readings").count({ n: "*" }))[0].n),
 };
 console.log(`fleet: ${counts.vessels} vessels, ${counts.units} units, ${counts.inspections} inspections, ${counts.readings} liner readings`);
+
+// BENCH_ONLY=import runs only (d), the importer.
+const only = process.env.BENCH_ONLY ?? "";
+if (only === "import") {
+  await benchImport(db);
+  await db.destroy();
+  process.exit(0);
+}
 
 const engineIds = (await db("main_engines").orderBy("id").select("id")).map((r) => r.id as number);
 const BATCH = 40;
@@ -90,4 +99,5 @@ console.log(`    full recompute of every unit       ${computeMs.toFixed(0).padSt
 console.log(`    … and storing it in unit_analysis  ${fullMs.toFixed(0).padStart(7)} ms   ratio ${(fullMs / readMs).toFixed(2)}× (no target; for the record)`);
 console.log(`    peak JS heap during recompute      ${(peakHeap / 1048576).toFixed(0).padStart(7)} MB`);
 console.log(`(b) whole-fleet summary (${rows} units)  ${summaryMs.toFixed(1).padStart(7)} ms (median of 7)   target < 100 ms   ${ok(summaryMs < 100)}`);
+await benchImport(db);
 await db.destroy();

@@ -104,7 +104,7 @@ type Pending = {
   date: string;
   lines: number[];
   header: Header;
-  readings: (Omit<PreviewReading, "wearMm" | "warning"> & { typed: string })[];
+  readings: Omit<PreviewReading, "wearMm" | "warning">[];
   rings: PreviewRing[];
 };
 
@@ -236,7 +236,7 @@ export function buildPreview(rows: readonly FileRow[], ctx: ImportContext, setti
       if (rowOk && stationKey && axisKey && dia.value !== null) {
         const entered = dia.unit ?? columnUnit.diameter ?? rowUnit;
         const diameterMm = Math.round(toMm(dia.value, entered) * 1000) / 1000;
-        reading = { line, stationKey, axisKey, diameterMm, enteredUnit: entered, typed: `${cell("diameter").trim()}${dia.unit ? "" : ` ${entered}`}` };
+        reading = { line, stationKey, axisKey, diameterMm, enteredUnit: entered };
       }
     }
     if (!rowOk || !unit || !date) continue;
@@ -384,13 +384,11 @@ function finishGroups(
     const warningOf = new Map<string, Finding[]>();
     for (const [key, findings] of checks.cells) {
       const line = lineOf.get(key) ?? first;
-      const r = g.readings.find((x) => x.line === line);
-      const typed = r ? `${r.typed}: ` : "";
       for (const f of findings) {
         if (f.level === "error") {
-          err(line, `${typed}${f.message}`);
+          err(line, f.message);
           groupOk = false;
-        } else if (f.code !== "same_value_everywhere") warn(line, `${typed}${f.message}`);
+        } else if (f.code !== "same_value_everywhere") warn(line, f.message);
       }
       warningOf.set(key, findings);
     }
@@ -431,8 +429,11 @@ function finishGroups(
     // Later gaugings of this liner in the file compare with this one, as the sheet compares with last time.
     let list = byLiner.get(liner.id);
     if (!list) byLiner.set(liner.id, (list = []));
-    list.push({ id: -out.length, linerId: liner.id, inspectedOn: g.date, engineHours, linerHours, gaugeTempC: header.gaugeTempC, linerTempC: header.linerTempC, readings: draftForChecks.readings });
-    list.sort((a, b) => (a.inspectedOn < b.inspectedOn ? -1 : a.inspectedOn > b.inspectedOn ? 1 : a.engineHours - b.engineHours));
+    // Kept in date order: the file's gaugings come in date order, so this is nearly always an append.
+    const entry = { id: -out.length, linerId: liner.id, inspectedOn: g.date, engineHours, linerHours, gaugeTempC: header.gaugeTempC, linerTempC: header.linerTempC, readings: draftForChecks.readings };
+    let at = list.length;
+    while (at > 0 && (list[at - 1].inspectedOn > g.date || (list[at - 1].inspectedOn === g.date && list[at - 1].engineHours > engineHours))) at--;
+    list.splice(at, 0, entry);
   }
   return out;
 }
