@@ -41,6 +41,16 @@ export const API_ROUTE_RULES = {
   "POST /api/inspections/[inspectionId]/photos/complete": { permission: "photo.upload", vesselScoped: true },
   "GET /api/inspections/[inspectionId]/photos/[photoId]": { permission: "fleet.read", vesselScoped: true },
   "DELETE /api/inspections/[inspectionId]/photos/[photoId]": { permission: "photo.upload", vesselScoped: true },
+  // renewal outlook: rows scoped by the query; plans by the unit's vessel, schedule by the vessel
+  "GET /api/outlook": { permission: "fleet.read", vesselScoped: false },
+  "POST /api/units/[unitId]/plans": { permission: "outlook.plan", vesselScoped: true },
+  "PUT /api/units/[unitId]/plans/[planId]": { permission: "outlook.plan", vesselScoped: true },
+  "GET /api/vessels/[vesselId]/schedule": { permission: "fleet.read", vesselScoped: true },
+  "POST /api/vessels/[vesselId]/schedule": { permission: "schedule.write", vesselScoped: true },
+  "PUT /api/vessels/[vesselId]/schedule/[entryId]": { permission: "schedule.write", vesselScoped: true },
+  "DELETE /api/vessels/[vesselId]/schedule/[entryId]": { permission: "schedule.write", vesselScoped: true },
+  "POST /api/spares": { permission: "spares.write", vesselScoped: false },
+  "PUT /api/spares/[spareId]": { permission: "spares.write", vesselScoped: false },
 } as const satisfies Record<string, AccessRule>;
 
 export const ACTION_RULES = {

@@ -2,6 +2,7 @@ import "server-only";
 import type { Knex } from "knex";
 import { recomputeUnits } from "@/lib/analysis/recompute";
 import { writeAudit } from "@/lib/audit/mutations";
+import { closePlansForInspection } from "@/lib/outlook/mutations";
 import { isRole } from "@/lib/auth/roles";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
@@ -308,6 +309,7 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       );
     }
     await recomputeUnits(trx, { unitIds: [row.unitId] });
+    await closePlansForInspection(trx, id, actor);
     const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
     await writeAudit(
       {
