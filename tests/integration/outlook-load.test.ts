@@ -34,6 +34,21 @@ afterAll(async () => {
   await admin?.destroy();
 });
 
+describe("the demo scenario's planning data", () => {
+  it("has port stays and dockings for every ship, plans in every state, and a spare short", async () => {
+    const withStays = await db("vessel_schedule").where({ kind: "port_stay" }).distinct("vessel_id").pluck("vessel_id");
+    const withDockings = await db("vessel_schedule").where({ kind: "docking" }).distinct("vessel_id").pluck("vessel_id");
+    expect(withStays.sort()).toEqual(vessels.map((v) => v.id).sort());
+    expect(withDockings.sort()).toEqual(vessels.map((v) => v.id).sort());
+    expect((await db("renewal_plans").distinct("status").pluck("status")).sort()).toEqual(["closed", "confirmed", "dropped", "pencilled"]);
+    const closed = await db("renewal_plans").where({ status: "closed" }).first("closed_by_inspection_id as by");
+    expect(closed.by).not.toBeNull();
+    const b = await loadOutlook(db, { vessels: "all" }, { today: TODAY, horizonMonths: 12 });
+    expect(b.shortfall.some((l) => l.short > 0)).toBe(true);
+    expect(b.rows.flatMap((r) => r.plans).some((p) => p.missed)).toBe(true);
+  });
+});
+
 describe("outlook rows from unit_analysis", () => {
   it("keeps the trend's fit beside the stored detail (generated column)", async () => {
     const row = await db("unit_analysis").whereNotNull("fit_json").first("fit_json", "detail");
