@@ -3,6 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { ActionError, actor, ruledAction } from "@/lib/auth/actions";
 import { issueInvitation, reissueInvitation, revokeInvitation } from "@/lib/invitations/mutations";
+import { updateCompanySettings } from "@/lib/company/settings";
+import { companySettingsSchema } from "@/lib/company/schemas";
 import { sendInvitationMail } from "@/lib/invitations/notify";
 import { createEngine, deactivateUser, reactivateUser, saveProfile, saveVessel, setUserAccess } from "./mutations";
 import {
@@ -85,4 +87,10 @@ export const saveProfileAction = ruledAction("saveProfileAction", profileSchema,
   const id = await saveProfile(actor(ctx), input);
   revalidatePath("/admin/profiles");
   return { message: input.profileId ? "Profile saved." : "Profile added.", data: { profileId: id } };
+});
+
+export const saveCompanySettingsAction = ruledAction("saveCompanySettingsAction", companySettingsSchema, async (input, ctx) => {
+  const saved = await updateCompanySettings(actor(ctx), input);
+  revalidatePath("/admin/companies");
+  return { message: `Settings of ${saved.companyName} saved.` };
 });

@@ -67,6 +67,7 @@ export const ACTION_RULES = {
   saveVesselAction: { permission: "admin.fleet", vesselScoped: false },
   createEngineAction: { permission: "admin.fleet", vesselScoped: false },
   saveProfileAction: { permission: "admin.profiles", vesselScoped: false },
+  saveCompanySettingsAction: { permission: "admin.fleet", vesselScoped: false },
   // the engine's running-hours log (the engine's vessel)
   logRunningHoursAction: { permission: "hoursLog.write", vesselScoped: true },
 } as const satisfies Record<string, AccessRule>;
