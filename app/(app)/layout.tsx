@@ -6,6 +6,7 @@ import { requireUser } from "@/lib/auth/session";
 export default async function SignedInLayout({ children }: { children: React.ReactNode }) {
   const user = await requireUser();
   const nav: NavItem[] = [{ href: "/fleet", label: "Fleet" }];
+  if (can(user.role, "fleet.read")) nav.push({ href: "/outlook", label: "Outlook" });
   if (can(user.role, "admin.users")) nav.push({ href: "/admin", label: "Admin" });
   return (
     <AppShell user={user} nav={nav}>

@@ -1,9 +1,12 @@
 import "server-only";
+import { getCompanySettings } from "@/lib/company/settings";
 
-/**
- * The currency the budget is shown in. Placeholder until the company settings land
- * (lib/company/settings.ts, getCompanySettings(companyId).currencyCode).
- */
-export async function currencyOf(_companyId: number | null): Promise<string> {
-  return "EUR";
+/** The currency (ISO 4217) of each company's costs, from the company settings. */
+export async function currenciesOf(companyIds: readonly number[]): Promise<Map<number, string>> {
+  const out = new Map<number, string>();
+  for (const id of new Set(companyIds)) {
+    const s = await getCompanySettings(id);
+    if (s) out.set(id, s.currencyCode);
+  }
+  return out;
 }

@@ -3,6 +3,7 @@ import type { UnitSummary } from "@/lib/analysis/compute";
 import { whereVesselInScope, type VesselScope } from "@/lib/auth/scope";
 import type { PredictionFit } from "@/lib/stats/regression";
 import { BAND_LABELS, type BandKey } from "@/lib/wear/bands";
+import { OPEN_PLAN_STATES, type OutlookRow, type PlanState, type PlanSummary, type ScheduleEntry } from "./types";
 import {
   budgetByYear,
   DEFAULT_RISK,
@@ -31,72 +32,7 @@ import {
  * alert sender load it with their own connection; lib/outlook/queries.ts is the app's door.
  */
 
-export type PlanState = "pencilled" | "confirmed" | "closed" | "dropped";
-export const OPEN_PLAN_STATES: readonly PlanState[] = ["pencilled", "confirmed"];
-export const PLAN_STATE_LABELS: Record<PlanState, string> = {
-  pencilled: "Pencilled in",
-  confirmed: "Confirmed",
-  closed: "Done",
-  dropped: "Dropped",
-};
-export const PART_LABELS: Record<SparePart, string> = { liner: "Liner", ring_set: "Ring set" };
-
-export type ScheduleEntry = {
-  id: number;
-  vesselId: number;
-  kind: "port_stay" | "docking";
-  place: string;
-  startsOn: string;
-  endsOn: string;
-  note: string | null;
-  revision: number;
-};
-
-export type PlanSummary = {
-  id: number;
-  unitId: number;
-  part: SparePart;
-  state: PlanState;
-  plannedOn: string;
-  opportunity: string | null;
-  scheduleId: number | null;
-  spareId: number | null;
-  note: string | null;
-  revision: number;
-  /** Open, and its day has passed without the inspection that records the renewal. */
-  missed: boolean;
-};
-
-export type OutlookRow = {
-  unitId: number;
-  vesselId: number;
-  vesselName: string;
-  engineId: number;
-  engineSerial: string;
-  profileId: number;
-  profileName: string;
-  cylinderNo: number;
-  linerSerial: string | null;
-  band: BandKey;
-  bandLabel: string;
-  linerHours: number | null;
-  lastInspectedOn: string | null;
-  maxWearMm: number | null;
-  limitMm: number;
-  wearRateMmPer1000h: number | null;
-  /** Share of the units of the same profile, fleet-wide, wearing at or below this rate (0–1). */
-  ratePercentile: number | null;
-  limitOn: string | null;
-  limitOnEarliest: string | null;
-  limitOnLatest: string | null;
-  overhauls: NextOverhaul[];
-  /** Chance of passing the wear limit by each of the next two overhauls. */
-  exceed: ExceedProbability[];
-  nextOpportunity: Opportunity | null;
-  recommendation: Recommendation;
-  ringsDue: boolean;
-  plans: PlanSummary[];
-};
+export * from "./types";
 
 export type OutlookOptions = { today: string; risk?: number };
 
@@ -143,6 +79,7 @@ export async function loadPlans(db: Knex, unitIds: readonly number[] | null, tod
 
 type UnitRow = {
   unitId: number;
+  companyId: number;
   vesselId: number;
   vesselName: string;
   engineId: number;
@@ -163,7 +100,7 @@ type UnitRow = {
 };
 
 /** Wear rates of every analysed unit of these profiles across the whole fleet, sorted per profile. */
-async function fleetRates(db: Knex, profileIds: number[]): Promise<Map<number, number[]>> {
+export async function fleetRates(db: Knex, profileIds: number[]): Promise<Map<number, number[]>> {
   const out = new Map<number, number[]>();
   if (!profileIds.length) return out;
   const rows = (await db("unit_analysis as a")
@@ -201,6 +138,7 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
       .orderBy(["v.name", "e.id", "u.cylinder_no"])
       .select(
         "u.id as unitId",
+        "v.company_id as companyId",
         "v.id as vesselId",
         "v.name as vesselName",
         "e.id as engineId",
@@ -273,6 +211,7 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
     const wearRate = num(u.wearRate);
     return {
       unitId: u.unitId,
+      companyId: u.companyId,
       vesselId: u.vesselId,
       vesselName: u.vesselName,
       engineId: u.engineId,

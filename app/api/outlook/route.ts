@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { HttpError, withRoute } from "@/lib/auth/api";
-import { currencyOf } from "@/lib/outlook/currency";
+import { currenciesOf } from "@/lib/outlook/currency";
 import { filterOutlook, outlookCsv, parseOutlookQuery } from "@/lib/outlook/present";
 import { getOutlook, todayIso } from "@/lib/outlook/queries";
 import { ZodError } from "zod";
@@ -32,7 +32,8 @@ export const GET = withRoute("GET /api/outlook", async (req, { user }) => {
     today,
     horizonMonths: bundle.horizonMonths,
     until: bundle.until,
-    currency: await currencyOf(null),
+    // One currency per company (company settings); a fleet of one company has one.
+    currencies: Object.fromEntries(await currenciesOf(bundle.rows.map((r) => r.companyId))),
     rows,
     schedule: keep(bundle.schedule),
     shortfall: bundle.shortfall,
