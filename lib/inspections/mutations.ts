@@ -15,6 +15,7 @@ import { loadInspectionContext } from "./context-queries";
 import { getInspectionDto, getInspectionRow, type InspectionRow } from "./queries";
 import { checkHours, derivedLinerHours, structuralErrors, submissionProblems, type Problem } from "./rules";
 import type { CreateInspectionInput, InspectionDraft, InspectionState } from "./schemas";
+import { inTransaction } from "@/lib/db/transaction";
 
 /*
  * The inspection workflow: create → save draft (optimistic lock on `revision`) →
@@ -84,7 +85,7 @@ export async function createInspection(actor: Actor, input: CreateInspectionInpu
     return { id: again.id, created: false };
   }
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       // Serialises creates on this unit: the second waits here and then finds the first's draft.
       await trx("cylinder_units").where({ id: input.unitId }).forUpdate().first("id");
       const open = await openDraftOf(trx, input.unitId);
@@ -135,7 +136,8 @@ export async function createInspection(actor: Actor, input: CreateInspectionInpu
         trx,
       );
       return { id, created: true };
-    });
+      // Idempotent: a run repeated after a lost commit finds its own draft (the unit's open draft, or the token).
+    }, { idempotent: true });
   } catch (err) {
     // Two identical requests raced: the loser's insert hits the unique token; answer with the winner's row.
     if (isDuplicateToken(err)) {
@@ -218,7 +220,7 @@ export type SavedDraft = { id: number; revision: number; state: InspectionState 
  * nothing is overwritten. Refuses a station, direction or ring the profile lacks.
  */
 export async function saveDraft(actor: Actor, id: number, revision: number, draft: InspectionDraft, db: Knex = defaultDb): Promise<SavedDraft> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await getInspectionRow(trx, id, true);
     if (!row) throw new RecordError(404, "Inspection not found.");
     if (!EDITABLE.includes(row.state)) await conflict(trx, id, `This inspection is ${row.state} and can no longer be edited as a draft.`);
@@ -261,7 +263,7 @@ async function completeProblems(trx: Knex.Transaction, row: InspectionRow): Prom
 
 /** Draft or returned → submitted, when the record is complete. A repeated submit answers with the current state. */
 export async function submitInspection(actor: Actor, id: number, revision: number | undefined, db: Knex = defaultDb): Promise<Transition> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await loadForTransition(trx, id);
     if (row.state === "submitted") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (!EDITABLE.includes(row.state)) await conflict(trx, id, `This inspection is ${row.state}; only a draft can be submitted.`);
@@ -287,7 +289,7 @@ export async function submitInspection(actor: Actor, id: number, revision: numbe
  * recomputed in the same transaction so the fleet screens show the new readings at once.
  */
 export async function approveInspection(actor: Actor, id: number, db: Knex = defaultDb): Promise<Transition> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await loadForTransition(trx, id);
     if (row.state === "approved") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (row.state !== "submitted") await conflict(trx, id, `This inspection is ${row.state}; only a submitted inspection can be approved.`);
@@ -334,7 +336,7 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
 
 /** Submitted → returned with the chief engineer's comment; the engineer corrects and submits again. */
 export async function returnInspection(actor: Actor, id: number, comment: string, db: Knex = defaultDb): Promise<Transition> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await loadForTransition(trx, id);
     if (row.state === "returned") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (row.state !== "submitted") await conflict(trx, id, `This inspection is ${row.state}; only a submitted inspection can be returned.`);
@@ -358,7 +360,7 @@ export async function amendInspection(actor: Actor, id: number, reason: string, 
     return { id: byToken.id, created: false };
   }
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       const row = await loadForTransition(trx, id);
       if (row.state !== "approved") await conflict(trx, id, `Only an approved inspection can be amended; this one is ${row.state}.`);
       const open = await trx("inspections").where({ supersedes_id: id }).whereIn("state", ["draft", "submitted", "returned"]).first("id");
@@ -404,7 +406,7 @@ export async function amendInspection(actor: Actor, id: number, reason: string, 
         trx,
       );
       return { id: newId as number, created: true };
-    });
+    }, { idempotent: true });
   } catch (err) {
     if (isDuplicateToken(err)) {
       const row = await db("inspections").where({ client_token: clientToken }).first("id");
@@ -424,7 +426,7 @@ export type DiscardedDraft = { id: number; unitId: number; deletedObjects: numbe
  * The audit entry keeps what was discarded, so the trail still explains the gap.
  */
 export async function discardDraft(actor: Actor, id: number, db: Knex = defaultDb): Promise<DiscardedDraft> {
-  const { keys, unitId } = await db.transaction(async (trx) => {
+  const { keys, unitId } = await inTransaction(db, async (trx) => {
     const row = await getInspectionRow(trx, id, true);
     if (!row) throw new RecordError(404, "Inspection not found.");
     if (row.state !== "draft") {

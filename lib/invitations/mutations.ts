@@ -8,6 +8,7 @@ import { db as defaultDb } from "@/lib/db/knex";
 import { invitationStatus, parseVesselIds, type InvitationStatus } from "./queries";
 import { INVITATION_TTL_DAYS } from "./schemas";
 import { hashInvitationToken, newInvitationToken } from "./token";
+import { inTransaction } from "@/lib/db/transaction";
 
 type Actor = { id: string; name: string };
 
@@ -39,7 +40,7 @@ function expiry(from = new Date()): Date {
  * and a person never holds two. Locks the address's rows so two clicks make one.
  */
 export async function issueInvitation(actor: Actor, o: IssueInvitationOptions, db: Knex = defaultDb): Promise<IssuedInvitation> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const existingUser = await trx("user").whereRaw("LOWER(email) = ?", [o.email.toLowerCase()]).first("id");
     if (existingUser) return { kind: "has_account" as const };
     const open = await trx("invitations")
@@ -103,7 +104,7 @@ export async function reissueInvitation(actor: Actor, invitationId: number, db: 
 }
 
 export async function revokeInvitation(actor: Actor, invitationId: number, db: Knex = defaultDb): Promise<boolean> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const n = await trx("invitations").where({ id: invitationId }).whereNull("used_at").whereNull("revoked_at").update({ revoked_at: new Date() });
     if (n) await writeAudit({ actor, action: "invitation.revoke", entityType: "invitation", entityId: invitationId }, trx);
     return n > 0;
@@ -121,7 +122,7 @@ export type AcceptResult =
  */
 export async function acceptInvitation(token: string, password: string, db: Knex = defaultDb): Promise<AcceptResult> {
   const passwordHash = await hashPassword(password); // slow on purpose: before taking any lock
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const inv = await trx("invitations")
       .where({ token_hash: hashInvitationToken(token) })
       .forUpdate()
