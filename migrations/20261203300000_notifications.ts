@@ -10,6 +10,9 @@ import type { Knex } from "knex";
  * next week's digest can say which units moved band.
  */
 export async function up(knex: Knex): Promise<void> {
+  // The outbox was created without naming its collation, so it took the server's default, which
+  // may differ from every other table's; the notifications page joins it to `user`.
+  await knex.raw("ALTER TABLE mail_outbox CONVERT TO CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci");
   await knex.schema.alterTable("mail_outbox", (t) => {
     t.string("user_id", 36).nullable().after("to_address");
     t.integer("vessel_id").unsigned().nullable().after("user_id");

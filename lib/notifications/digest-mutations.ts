@@ -1,12 +1,12 @@
 import "server-only";
 import type { Knex } from "knex";
-import { isRole } from "@/lib/auth/roles";
 import { db as defaultDb } from "@/lib/db/knex";
 import { queueMail } from "@/lib/mail/outbox";
 import { digestEmail } from "@/lib/mail/templates";
 import { appLink, PREFERENCES_PATH } from "./alert-mutations";
 import { composeDigest, type DigestFacts, type DigestPerson, type DigestRecord } from "./digest";
 import { unitsInsideHorizon } from "./horizon-queries";
+import { subscribedPeople } from "./recipient-queries";
 import { isoWeek } from "./topics";
 
 /*
@@ -60,13 +60,7 @@ export async function runWeeklyDigest(opts: { db?: Knex; now?: Date } = {}): Pro
   const now = opts.now ?? new Date();
   const week = isoWeek(now);
   const previousWeek = await snapshotBands(db, week);
-  const people = await db("user as u")
-    .leftJoin("notification_preferences as np", (j) => j.on("np.user_id", "u.id").andOnVal("np.topic", "weekly_digest"))
-    .where((w) => w.whereNull("u.banned").orWhere("u.banned", false))
-    .where((w) => w.whereNull("np.enabled").orWhere("np.enabled", true))
-    .whereIn("u.role", ["engineer", "chief_engineer", "superintendent"])
-    .orderBy("u.id")
-    .select<{ id: string; name: string; email: string; role: string }[]>("u.id", "u.name", "u.email", "u.role");
+  const people = await subscribedPeople(db, "weekly_digest", ["engineer", "chief_engineer", "superintendent"]);
   const assignments = people.length
     ? await db("user_vessels").whereIn("user_id", people.map((p) => p.id)).select<{ user_id: string; vessel_id: number }[]>("user_id", "vessel_id")
     : [];
@@ -79,7 +73,6 @@ export async function runWeeklyDigest(opts: { db?: Knex; now?: Date } = {}): Pro
   const url = appLink("/");
   const preferencesUrl = appLink(PREFERENCES_PATH);
   for (const p of people) {
-    if (!isRole(p.role)) continue;
     const person: DigestPerson = { id: p.id, role: p.role, vesselIds: vesselsOf.get(p.id) ?? [] };
     if (!person.vesselIds.length) continue;
     run.people++;

@@ -31,6 +31,12 @@ async function onVessel(conn: Conn, topic: Topic, vesselId: number, roles: Role[
   return rows.filter((r): r is Recipient => isRole(r.role));
 }
 
+/** Every active person of `roles` who has `topic` on (the digest's readers), by id. */
+export async function subscribedPeople(conn: Conn, topic: Topic, roles: Role[]): Promise<Recipient[]> {
+  const rows = await subscribed(conn, topic).whereIn("u.role", roles).orderBy("u.id").select<{ id: string; name: string; email: string; role: string }[]>("u.id", "u.name", "u.email", "u.role");
+  return rows.filter((r): r is Recipient => isRole(r.role));
+}
+
 /** One person by id, when they are active and have `topic` on. */
 export async function subscribedUser(conn: Conn, topic: Topic, userId: string): Promise<Recipient | null> {
   const row = await subscribed(conn, topic).where("u.id", userId).first<{ id: string; name: string; email: string; role: string } | undefined>("u.id", "u.name", "u.email", "u.role");
