@@ -174,26 +174,30 @@ export function probabilityEmail(
   );
 }
 
-export function planMissedEmail(o: Recipient & Unit & { part: string; place: string; endedOn: string; plannedOn: string }): MailContent {
+export function planMissedEmail(o: Recipient & Unit & { part: string; place: string | null; plannedOn: string }): MailContent {
   return alert(
     `Renewal not done: ${unitName(o)}`,
     o,
     [
-      `The ${o.part} renewal of ${unitName(o)} was planned for ${o.place} (${day(o.plannedOn)}). That call ended on ${day(o.endedOn)} and no renewal is recorded.`,
+      `The ${o.part} renewal of ${unitName(o)} was planned for ${day(o.plannedOn)}${o.place ? ` at ${o.place}` : ""}. That day has passed and no renewal is recorded (no approved inspection of a new ${o.part}).`,
       "Record the renewal if it was done, or plan it into another port call or docking.",
     ],
-    "Open the renewal plans",
+    "Open the unit",
   );
 }
 
-export function orderByEmail(o: Recipient & Unit & { part: string; orderBy: string; neededOn: string; leadTimeDays: number }): MailContent {
+export function orderByEmail(
+  o: Recipient & { profileName: string; part: string; short: number; firstShortOn: string; orderBy: string; leadTimeDays: number | null; vesselNames: string[] },
+): MailContent {
+  const late = o.orderBy < new Date().toISOString().slice(0, 10);
   return alert(
-    `Order a spare by ${day(o.orderBy)}: ${unitName(o)}`,
+    `Order ${o.short} ${o.part}${o.short === 1 ? "" : "s"} by ${day(o.orderBy)}: ${o.profileName}`,
     o,
     [
-      `A spare ${o.part} for ${unitName(o)} is needed by ${day(o.neededOn)}. With a lead time of ${o.leadTimeDays} days it must be ordered by ${day(o.orderBy)}.`,
+      `The planned and projected renewals of ${o.profileName} engines (${o.vesselNames.join(", ")}) leave ${o.short} ${o.part}${o.short === 1 ? "" : "s"} short, the first on ${day(o.firstShortOn)}.`,
+      `${o.leadTimeDays === null ? "" : `With a lead time of ${o.leadTimeDays} days, `}the order must be placed by ${day(o.orderBy)}${late ? " — that day has already passed" : ""}.`,
     ],
-    "Open the spares",
+    "Open the spares outlook",
   );
 }
 

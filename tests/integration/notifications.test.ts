@@ -1,4 +1,6 @@
+import { execFile } from "node:child_process";
 import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { promisify } from "node:util";
 import path from "node:path";
 import { simpleParser, type ParsedMail } from "mailparser";
 import nodemailer, { type SendMailOptions } from "nodemailer";
@@ -315,4 +317,9 @@ describe("the weekly digest", () => {
     expect(mail.text).toContain(`${APP}/notifications/preferences`);
     await savePreferences(chief2, ["inspection_submitted", "inspection_returned", "unit_over_limit", "unit_horizon", "unit_probability", "weekly_digest"]);
   });
+
+  it("npm run digest runs the same job from the command line, and a second run in the week sends nothing new", async () => {
+    const { stdout } = await promisify(execFile)("npm", ["run", "--silent", "digest"], { cwd: path.resolve(import.meta.dirname, "../.."), env: process.env, timeout: 60_000 });
+    expect(stdout).toMatch(new RegExp(`^weekly digest ${isoWeek(new Date())}: 0 queued for \\d+ people, \\d+ already queued this week`, "m"));
+  }, 90_000);
 });
