@@ -58,6 +58,8 @@ export const serverEnvSchema = z.object({
   AUTH_RATE_LIMIT_WINDOW_S: count(60, 1, "a whole number of seconds, at least 1"),
   TRUSTED_PROXY_HEADER: z.string().regex(/^[A-Za-z0-9-]+$/, "must be a header name such as X-Forwarded-For").optional(),
   SESSION_MAX_AGE_S: count(60 * 60 * 12, 300, "a whole number of seconds, at least 300"),
+  /** Bearer token a scheduler sends to POST /api/jobs/*; unset, those routes refuse every call. */
+  JOBS_TOKEN: z.string().min(32, "must be at least 32 characters (openssl rand -base64 48)").regex(/^[\x21-\x7e]+$/, "must be printable characters without spaces").optional(),
 })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== "production") return;
