@@ -53,6 +53,14 @@ export const API_ROUTE_RULES = {
   "PUT /api/spares/[spareId]": { permission: "spares.write", vesselScoped: false },
   // scheduled jobs: a scheduler has no session; the secret JOBS_TOKEN is its credential
   "POST /api/jobs/digest": { public: true, why: "authorized by the JOBS_TOKEN bearer token, compared in constant time" },
+  // imports from files (the vessel named in the body or query, or the import's vessel)
+  "POST /api/imports/uploads": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports": { permission: "import.create", vesselScoped: true },
+  "GET /api/imports": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]/file": { permission: "fleet.read", vesselScoped: true },
+  "POST /api/imports/[importId]/commit": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports/[importId]/approve": { permission: "inspection.approve", vesselScoped: true },
 } as const satisfies Record<string, AccessRule>;
 
 export const ACTION_RULES = {

@@ -296,7 +296,10 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
     const row = await loadForTransition(trx, id);
     if (row.state === "approved") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (row.state !== "submitted") await conflict(trx, id, `This inspection is ${row.state}; only a submitted inspection can be approved.`);
-    const parties = await trx("inspections").where({ id }).first("created_by as createdBy", "submitted_by as submittedBy");
+    const parties = await trx("inspections").where({ id }).first("created_by as createdBy", "submitted_by as submittedBy", "import_id as importId");
+    // Past records from a file are approved together, with their import (lib/imports/mutations.ts).
+    if (parties.importId) throw new RecordError(409, `This record came from import ${parties.importId} of past records; approve that import as a whole.`);
+    delete parties.importId;
     const approver = await trx("user").where({ id: actor.id }).first("role");
     const refusal = isRole(approver?.role) ? approvalRefusal({ id: actor.id, role: approver.role }, parties) : "Your role does not approve inspection records.";
     if (refusal) throw new RecordError(403, refusal);
