@@ -44,9 +44,11 @@ export async function benchImport(db: Knex): Promise<void> {
   const engineer = crew.find((c) => c.role === "engineer")!;
   const chief = crew.find((c) => c.role === "chief_engineer")!;
 
-  const text = largeHistory();
+  // A comment line of its own per run: the benchmark's database is kept, and the same file twice is refused.
+  const stamp = `# benchmark run ${new Date().toISOString()}\n`;
+  const text = stamp + largeHistory();
   const gaugings = engineHistory({ cylinders: 12, perCylinder: 463, startDate: "2014-01-01", endDate: "2024-12-31", seed: 5, rings: false });
-  const rowCount = layoutRows(gaugings).length;
+  const rowCount = layoutRows(gaugings).length; // the file has a header and a comment line besides
 
   // The plain insert: the same inspections and readings, into the same tables, of an engine of its own.
   const plain = await engineOf(db, "Long-stroke 640", 12, vessel.id, "2014-01-01");
@@ -92,7 +94,7 @@ export async function benchImport(db: Knex): Promise<void> {
   const rows: string[][] = [];
   for (const s of st860) for (const axis of ["fa", "ath"]) rows.push(["1", "2024-06-03", "11800", "", s.station_key, "", axis, (860 + (s.role.startsWith("unworn") ? 0 : 0.31)).toFixed(3), "31", "24", "MG-0417", "", "", "", ""]);
   for (let r = 1; r <= 4; r++) rows.push(["1", "2024-06-03", "11800", "", "", "", "", "", "31", "24", "MG-0417", String(r), "4.10", r === 1 ? "0.62" : "0.58", ""]);
-  const gaugeText = csvText(LAYOUT_HEADER, rows);
+  const gaugeText = stamp + csvText(LAYOUT_HEADER, rows);
   const gaugeFile = await upload(engineer, vessel.id, gaugeText, db);
   t0 = performance.now();
   const gp = await previewImport(engineer, { fileId: gaugeFile, vesselId: vessel.id, destination: "draft", unitId: gauge.units[0], newDraft: { inspectedOn: "2024-06-03", engineHours: 11800 }, mapping: LAYOUT, options: detectOptions(gaugeText), excludedLines: [], saveMapping: false }, db);

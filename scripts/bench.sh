@@ -21,7 +21,9 @@ NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev
 node --conditions=react-server --import tsx scripts/seed.ts --if-empty --scale "${BENCH_SCALE:-200}" --no-recompute
 # Timed as the product runs it: bundled ahead of time (as the Next.js server bundle is), not
 # through tsx's on-the-fly transform, whose module wrappers alone doubled the per-reading cost.
-npx esbuild scripts/bench.ts --bundle --platform=node --format=esm --packages=external --log-level=warning --outfile="$ROOT/.bench-data/bench.mjs"
+# The importer's mutations reach next/navigation and next/headers (through the company settings),
+# which cannot load outside a Next.js server: a stub stands in, since the benchmark never calls them.
+npx esbuild scripts/bench.ts --bundle --platform=node --format=esm --packages=external --log-level=warning --alias:next/navigation=./scripts/lib/bench-next-stub.ts --alias:next/headers=./scripts/lib/bench-next-stub.ts --outfile="$ROOT/.bench-data/bench.mjs"
 node --conditions=react-server --expose-gc "$ROOT/.bench-data/bench.mjs"
 # (c) the entry screens' first-load JavaScript, from the last production build when there is one.
 if [ -f "$ROOT/.next/diagnostics/route-bundle-stats.json" ]; then
