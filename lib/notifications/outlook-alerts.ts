@@ -2,6 +2,7 @@ import "server-only";
 import type { Knex } from "knex";
 import { listCompanySettings } from "@/lib/company/settings";
 import { day } from "@/lib/format";
+import { addDays } from "@/lib/wear/calendar";
 import { orderByEmail, planMissedEmail, probabilityEmail } from "@/lib/mail/templates";
 import { loadOutlook, PART_LABELS, type OutlookBundle } from "@/lib/outlook/load";
 import { queueAlert } from "./alert-mutations";
@@ -18,10 +19,7 @@ import { chiefsAndSuperintendents, superintendentsOf, type Recipient } from "./r
 /** A spare's order-by date this close (or past) is worth an alert. */
 export const ORDER_BY_WARNING_DAYS = 14;
 
-const addDays = (iso: string, days: number) => {
-  const [y, m, d] = iso.split("-").map(Number);
-  return new Date(Date.UTC(y, m - 1, d + days)).toISOString().slice(0, 10);
-};
+const daysAfter = (iso: string, days: number) => addDays(iso, days) ?? iso;
 
 /** The outlook over the whole fleet, a year ahead (the scan's and the digest's view). */
 export function loadFleetOutlook(db: Knex, today: string, scope: { vessels: "all" | number[] } = { vessels: "all" }): Promise<OutlookBundle> {
@@ -33,7 +31,7 @@ export function loadFleetOutlook(db: Knex, today: string, scope: { vessels: "all
  * of passing the limit by the next overhaul at or over the company's threshold (chiefs and
  * superintendents, once per liner and overhaul), a plan whose day passed (superintendents, once
  * per plan), a spare short whose order-by date is within ORDER_BY_WARNING_DAYS or past
- * (superintendents of the ships with that engine profile, once per order-by date).
+ * (superintendents of the ships with that engine profile, once per profile, part and number short).
  */
 export async function alertFromOutlook(db: Knex, now = new Date(), scope: { vessels: "all" | number[] } = { vessels: "all" }): Promise<number> {
   const today = now.toISOString().slice(0, 10);
@@ -79,7 +77,7 @@ export async function alertFromOutlook(db: Knex, now = new Date(), scope: { vess
     }
   }
 
-  const soon = addDays(today, ORDER_BY_WARNING_DAYS);
+  const soon = daysAfter(today, ORDER_BY_WARNING_DAYS);
   for (const line of bundle.shortfall) {
     if (line.short <= 0 || !line.orderBy || !line.firstShortOn || line.orderBy > soon) continue;
     const rows = bundle.rows.filter((r) => r.profileId === line.profileId);
@@ -89,7 +87,9 @@ export async function alertFromOutlook(db: Knex, now = new Date(), scope: { vess
     for (const vesselId of vesselIds) {
       queued += await queueAlert(db, {
         topic: "spare_order_by",
-        subject: `spare:${line.profileId}:${line.part}:${line.orderBy}`,
+        // Not the order-by date: for a renewal already due it moves with each day. A shortfall that
+        // grows is a new cause; one that stays the same was told once.
+        subject: `spare:${line.profileId}:${line.part}:short-${line.short}`,
         vesselId,
         linkPath: "/outlook/spares",
         recipients: await superintendentsOf(db, "spare_order_by", vesselId),
@@ -103,7 +103,7 @@ export async function alertFromOutlook(db: Knex, now = new Date(), scope: { vess
 
 /** For the digest: open plans due within `days`, and the spares short, as lines per vessel. */
 export function outlookDigestLines(bundle: OutlookBundle, days = 60) {
-  const until = addDays(bundle.today, days);
+  const until = daysAfter(bundle.today, days);
   const renewals = bundle.rows.flatMap((row) =>
     row.plans
       .filter((p) => p.plannedOn >= bundle.today && p.plannedOn <= until)
