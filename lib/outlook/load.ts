@@ -77,24 +77,10 @@ export async function loadPlans(db: Knex, unitIds: readonly number[] | null, tod
   return rows.map((r) => ({ ...r, missed: (OPEN_PLAN_STATES as string[]).includes(r.state) && r.plannedOn < today }));
 }
 
-type UnitRow = {
-  unitId: number;
-  companyId: number;
-  vesselId: number;
-  vesselName: string;
-  engineId: number;
-  engineSerial: string;
-  profileId: number;
-  profileName: string;
-  cylinderNo: number;
-  linerSerial: string | null;
-  limitMm: number;
+type UnitRow = Pick<OutlookRow, "unitId" | "companyId" | "vesselId" | "vesselName" | "engineId" | "engineSerial" | "profileId" | "profileName" | "cylinderNo" | "linerSerial" | "limitMm" | "limitOn" | "limitOnEarliest" | "limitOnLatest"> & {
   intervalHours: number;
   band: BandKey | null;
   wearRate: number | null;
-  limitOn: string | null;
-  limitOnEarliest: string | null;
-  limitOnLatest: string | null;
   summary: unknown;
   fit: unknown;
 };
