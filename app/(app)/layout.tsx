@@ -8,6 +8,7 @@ export default async function SignedInLayout({ children }: { children: React.Rea
   const nav: NavItem[] = [{ href: "/fleet", label: "Fleet" }];
   if (can(user.role, "fleet.read")) nav.push({ href: "/outlook", label: "Outlook" });
   if (can(user.role, "admin.users")) nav.push({ href: "/admin", label: "Admin" });
+  nav.push({ href: "/notifications", label: "Notifications" });
   return (
     <AppShell user={user} nav={nav}>
       {children}

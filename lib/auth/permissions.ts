@@ -24,6 +24,8 @@ export const PERMISSIONS = {
   "outlook.plan": ["superintendent"],
   "schedule.write": ["superintendent"],
   "spares.write": ["superintendent", "admin"],
+  /** Import readings from files: a gauge file into a draft, past records into the history (approved as inspections are). */
+  "import.create": ["chief_engineer", "engineer"],
   /** Users, roles, vessel assignments, invitations. */
   "admin.users": ["admin"],
   /** Vessels, companies and main engines (with their cylinder units). */

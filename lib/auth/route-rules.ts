@@ -51,6 +51,16 @@ export const API_ROUTE_RULES = {
   "DELETE /api/vessels/[vesselId]/schedule/[entryId]": { permission: "schedule.write", vesselScoped: true },
   "POST /api/spares": { permission: "spares.write", vesselScoped: false },
   "PUT /api/spares/[spareId]": { permission: "spares.write", vesselScoped: false },
+  // scheduled jobs: a scheduler has no session; the secret JOBS_TOKEN is its credential
+  "POST /api/jobs/digest": { public: true, why: "authorized by the JOBS_TOKEN bearer token, compared in constant time" },
+  // imports from files (the vessel named in the body or query, or the import's vessel)
+  "POST /api/imports/uploads": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports": { permission: "import.create", vesselScoped: true },
+  "GET /api/imports": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]/file": { permission: "fleet.read", vesselScoped: true },
+  "POST /api/imports/[importId]/commit": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports/[importId]/approve": { permission: "inspection.approve", vesselScoped: true },
 } as const satisfies Record<string, AccessRule>;
 
 export const ACTION_RULES = {
@@ -70,6 +80,8 @@ export const ACTION_RULES = {
   saveCompanySettingsAction: { permission: "admin.fleet", vesselScoped: false },
   // the engine's running-hours log (the engine's vessel)
   logRunningHoursAction: { permission: "hoursLog.write", vesselScoped: true },
+  // notifications: each person's own e-mail preferences
+  savePreferencesAction: { permission: "account.self", vesselScoped: false },
 } as const satisfies Record<string, AccessRule>;
 
 export type ApiRouteKey = keyof typeof API_ROUTE_RULES;
