@@ -107,7 +107,7 @@ const today = new Date().toISOString().slice(0, 10);
 const vesselIds = (await db("vessels").orderBy("id").select("id")).map((r) => r.id as number);
 const demoIds = vesselIds.slice(0, 5);
 const outlookRead = () =>
-  db("unit_analysis").select("unit_id", "liner_id", "band", "max_wear_mm", "wear_rate_mm_per_1000h", "liner_hours", "limit_on", "limit_on_earliest", "limit_on_latest", "last_inspected_on", "summary", "fit_json");
+  db("unit_analysis").select("unit_id", "liner_id", "band", "max_wear_mm", "wear_rate_mm_per_1000h", "liner_hours", "limit_on", "limit_on_earliest", "limit_on_latest", "last_inspected_on", "summary");
 const outlookBuild = () => loadOutlookRows(db, { vessels: vesselIds }, { today });
 const demoAnswer = async () => {
   const b = await loadOutlook(db, { vessels: demoIds }, { today, horizonMonths: 12 });
