@@ -93,22 +93,34 @@ type OutlookFigures = Pick<UnitSummary, "nextOverhaulEngineHours" | "linerHours"
 
 const anyTrue = (v: boolean | boolean[] | null | undefined) => (Array.isArray(v) ? v.includes(true) : v === true);
 
-/** Wear rates of every analysed unit of these profiles across the whole fleet, sorted per profile. */
+/**
+ * Wear rates of every analysed unit of these profiles across the whole fleet, sorted per profile.
+ * One row per profile, the database sorting and joining the rates (GROUP_CONCAT, lifted above
+ * its 1 MB default for this statement only): a fleet's worth of single-rate rows cost more to
+ * fetch and decode than the outlook of a few ships. A DOUBLE turns into the same shortest
+ * decimal text here as in a result row, so Number() gives back the very same rates.
+ */
 export async function fleetRates(db: Knex, profileIds: number[]): Promise<Map<number, number[]>> {
   const out = new Map<number, number[]>();
   if (!profileIds.length) return out;
-  const rows = (await db("unit_analysis as a")
-    .join("cylinder_units as u", "u.id", "a.unit_id")
-    .join("main_engines as e", "e.id", "u.engine_id")
-    .whereIn("e.profile_id", profileIds)
-    .whereNotNull("a.wear_rate_mm_per_1000h")
-    .select("e.profile_id as profileId", "a.wear_rate_mm_per_1000h as rate")) as { profileId: number; rate: number }[];
+  const [rows] = (await db.raw(
+    `SET STATEMENT group_concat_max_len = 4294967295 FOR
+     SELECT e.profile_id AS profileId, GROUP_CONCAT(a.wear_rate_mm_per_1000h ORDER BY a.wear_rate_mm_per_1000h SEPARATOR ',') AS rates
+       FROM unit_analysis a
+       JOIN cylinder_units u ON u.id = a.unit_id
+       JOIN main_engines e ON e.id = u.engine_id
+      WHERE e.profile_id IN (${profileIds.map(() => "?").join(",")}) AND a.wear_rate_mm_per_1000h IS NOT NULL
+      GROUP BY e.profile_id`,
+    profileIds,
+  )) as [{ profileId: number; rates: string | null }[]];
   for (const r of rows) {
-    const list = out.get(r.profileId) ?? [];
-    if (!out.has(r.profileId)) out.set(r.profileId, list);
-    if (Number.isFinite(r.rate)) list.push(Number(r.rate));
+    const list: number[] = [];
+    for (const text of r.rates ? r.rates.split(",") : []) {
+      const rate = Number(text);
+      if (Number.isFinite(rate)) list.push(rate);
+    }
+    out.set(r.profileId, list);
   }
-  for (const list of out.values()) list.sort((a, b) => a - b);
   return out;
 }
 
@@ -120,6 +132,11 @@ export async function fleetRates(db: Knex, profileIds: number[]): Promise<Map<nu
  * in the fleet, whoever asks (only the rank is shown, never another ship's figures).
  */
 export async function loadOutlookRows(db: Knex, scope: VesselScope, options: OutlookOptions): Promise<OutlookRow[]> {
+  return (await outlookRowsAndSchedule(db, scope, options)).rows;
+}
+
+/** loadOutlookRows, with the schedule it read, so the whole outlook does not read it twice. */
+async function outlookRowsAndSchedule(db: Knex, scope: VesselScope, options: OutlookOptions): Promise<{ rows: OutlookRow[]; schedule: ScheduleEntry[] }> {
   const { today } = options;
   const units = (await whereVesselInScope(
     db("cylinder_units as u")
@@ -153,7 +170,7 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
     scope,
     "v.id",
   )) as UnitRow[];
-  if (!units.length) return [];
+  if (!units.length) return { rows: [], schedule: [] };
   const vesselIds = [...new Set(units.map((u) => u.vesselId))];
   const [schedule, plans, rates] = await Promise.all([
     loadSchedule(db, vesselIds, today),
@@ -173,7 +190,7 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
     list.push(p);
   }
 
-  return units.map((u): OutlookRow => {
+  const rows = units.map((u): OutlookRow => {
     const summary = u.outlook ? parsed<OutlookFigures>(u.outlook) : null;
     const fit = summary?.fit ?? null;
     const limitMm = Number(u.limitMm);
@@ -189,7 +206,10 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
     const overhaulOpps: Opportunity[] = overhauls
       .filter((o): o is NextOverhaul & { date: string } => o.date !== null && o.date >= today)
       .map((o) => ({ kind: "overhaul", date: o.date, label: `piston overhaul ${o.ordinal}`, scheduleId: null }));
-    const nextOpportunity = [...opportunities, ...overhaulOpps].sort((a, b) => a.date.localeCompare(b.date))[0] ?? null;
+    // The earliest; the first of equals (ISO dates compare as strings, no collation needed).
+    let nextOpportunity: Opportunity | null = null;
+    for (const o of opportunities) if (nextOpportunity === null || o.date < nextOpportunity.date) nextOpportunity = o;
+    for (const o of overhaulOpps) if (nextOpportunity === null || o.date < nextOpportunity.date) nextOpportunity = o;
     const recommendation = recommend({
       today,
       mustRenew: band === "over_limit",
@@ -232,6 +252,7 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
       plans: plansOf.get(u.unitId) ?? [],
     };
   });
+  return { rows, schedule };
 }
 
 /** Stock lines of the companies that own the given vessels: on board those vessels, and each company's store. */
@@ -314,9 +335,9 @@ export type OutlookBundle = {
 export async function loadOutlook(db: Knex, scope: VesselScope, options: OutlookOptions & { horizonMonths: number }): Promise<OutlookBundle> {
   const { today, horizonMonths } = options;
   const until = horizonEnd(today, horizonMonths);
-  const rows = await loadOutlookRows(db, scope, options);
+  const { rows, schedule } = await outlookRowsAndSchedule(db, scope, options);
   const vesselIds = [...new Set(rows.map((r) => r.vesselId))];
-  const [schedule, stock] = await Promise.all([loadSchedule(db, vesselIds, today), loadStock(db, vesselIds)]);
+  const stock = await loadStock(db, vesselIds);
   const raw = demandsOf(rows, today, until);
   const { lines, sources } = spareShortfall(raw, stock, today);
   const costLine = (d: (typeof raw)[number]) => {

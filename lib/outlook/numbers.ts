@@ -183,7 +183,7 @@ export function recommend(input: {
     ...input.overhauls
       .filter((o): o is NextOverhaul & { date: string } => o.date !== null && o.date >= input.today)
       .map((o) => ({ kind: "overhaul" as const, date: o.date, label: `piston overhaul ${o.ordinal} (about ${o.date})`, scheduleId: null })),
-  ].sort((a, b) => a.date.localeCompare(b.date));
+  ].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
   let chosen: Opportunity | null = null;
   for (const c of candidates) {
     if (riskyOn(c.date) !== false) break;
