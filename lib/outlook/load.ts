@@ -40,10 +40,10 @@ const parsed = <T>(v: unknown): T => (typeof v === "string" ? JSON.parse(v) : v)
 const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
 
 /** The schedule entries (port stays and dockings) of the given vessels ending on or after `from`, by date. */
-export async function loadSchedule(db: Knex, vesselIds: readonly number[] | Knex.QueryBuilder, from: string): Promise<ScheduleEntry[]> {
-  if (Array.isArray(vesselIds) && !vesselIds.length) return [];
+export async function loadSchedule(db: Knex, vesselIds: readonly number[], from: string): Promise<ScheduleEntry[]> {
+  if (!vesselIds.length) return [];
   const rows = await db("vessel_schedule")
-    .whereIn("vessel_id", vesselIds as number[] | Knex.QueryBuilder)
+    .whereIn("vessel_id", vesselIds as number[])
     .where("ends_on", ">=", from)
     .orderBy(["starts_on", "id"])
     .select("id", "vessel_id as vesselId", "kind", "place", "starts_on as startsOn", "ends_on as endsOn", "note", "revision");
@@ -100,19 +100,18 @@ const anyTrue = (v: boolean | boolean[] | null | undefined) => (Array.isArray(v)
  * fetch and decode than the outlook of a few ships. A DOUBLE turns into the same shortest
  * decimal text here as in a result row, so Number() gives back the very same rates.
  */
-export async function fleetRates(db: Knex, profileIds: number[] | Knex.QueryBuilder): Promise<Map<number, number[]>> {
+export async function fleetRates(db: Knex, profileIds: number[]): Promise<Map<number, number[]>> {
   const out = new Map<number, number[]>();
-  if (Array.isArray(profileIds) && !profileIds.length) return out;
-  const profiles = Array.isArray(profileIds) ? db.raw(`(${profileIds.map(() => "?").join(",")})`, profileIds) : profileIds;
+  if (!profileIds.length) return out;
   const [rows] = (await db.raw(
     `SET STATEMENT group_concat_max_len = 4294967295 FOR
      SELECT e.profile_id AS profileId, GROUP_CONCAT(a.wear_rate_mm_per_1000h ORDER BY a.wear_rate_mm_per_1000h SEPARATOR ',') AS rates
        FROM unit_analysis a
        JOIN cylinder_units u ON u.id = a.unit_id
        JOIN main_engines e ON e.id = u.engine_id
-      WHERE e.profile_id IN ? AND a.wear_rate_mm_per_1000h IS NOT NULL
+      WHERE e.profile_id IN (${profileIds.map(() => "?").join(",")}) AND a.wear_rate_mm_per_1000h IS NOT NULL
       GROUP BY e.profile_id`,
-    [profiles],
+    profileIds,
   )) as [{ profileId: number; rates: string | null }[]];
   for (const r of rows) {
     const list: number[] = [];
@@ -139,18 +138,14 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
 /** loadOutlookRows, with the schedule it read, so the whole outlook does not read it twice. */
 async function outlookRowsAndSchedule(db: Knex, scope: VesselScope, options: OutlookOptions): Promise<{ rows: OutlookRow[]; schedule: ScheduleEntry[] }> {
   const { today } = options;
-  // The units in scope; the schedule, plans and rates are read beside them (their vessels and
-  // profiles as subqueries of the same joins), not after, so the reads overlap.
-  const unitsInScope = () =>
-    whereVesselInScope(
-      db("cylinder_units as u").join("main_engines as e", "e.id", "u.engine_id").join("vessels as v", "v.id", "e.vessel_id").join("engine_profiles as p", "p.id", "e.profile_id").whereNull("v.archived_at"),
-      scope,
-      "v.id",
-    );
-  const [units, schedule, plans, rates] = await Promise.all([
-    unitsInScope()
+  const units = (await whereVesselInScope(
+    db("cylinder_units as u")
+      .join("main_engines as e", "e.id", "u.engine_id")
+      .join("vessels as v", "v.id", "e.vessel_id")
+      .join("engine_profiles as p", "p.id", "e.profile_id")
       .leftJoin("unit_analysis as a", "a.unit_id", "u.id")
       .leftJoin("liners as l", "l.id", "a.liner_id")
+      .whereNull("v.archived_at")
       .orderBy(["v.name", "e.id", "u.cylinder_no"])
       .select(
         "u.id as unitId",
@@ -171,12 +166,17 @@ async function outlookRowsAndSchedule(db: Knex, scope: VesselScope, options: Out
         "a.limit_on_earliest as limitOnEarliest",
         "a.limit_on_latest as limitOnLatest",
         "a.outlook_json as outlook",
-      ) as Promise<UnitRow[]>,
-    loadSchedule(db, unitsInScope().distinct("v.id"), today),
-    loadPlans(db, null, today, { vesselScope: scope }),
-    fleetRates(db, unitsInScope().distinct("p.id")),
-  ]);
+      ),
+    scope,
+    "v.id",
+  )) as UnitRow[];
   if (!units.length) return { rows: [], schedule: [] };
+  const vesselIds = [...new Set(units.map((u) => u.vesselId))];
+  const [schedule, plans, rates] = await Promise.all([
+    loadSchedule(db, vesselIds, today),
+    loadPlans(db, null, today, { vesselScope: scope }),
+    fleetRates(db, [...new Set(units.map((u) => u.profileId))]),
+  ]);
   const scheduleOf = new Map<number, Opportunity[]>();
   for (const s of schedule) {
     const list = scheduleOf.get(s.vesselId) ?? [];
