@@ -26,10 +26,10 @@ import { signInCookie } from "../support/sessions";
  * Then every text field takes each injection string (SQL, HTML/script, spreadsheet
  * formulas) and the API gives it back unchanged.
  *
- * FUZZ_RUNS sets the runs per route (default 30); FUZZ_SEED replays a failure.
+ * FUZZ_RUNS sets the runs per route (default 20); FUZZ_SEED replays a failure.
  */
 
-const RUNS = Number(process.env.FUZZ_RUNS ?? 30);
+const RUNS = Number(process.env.FUZZ_RUNS ?? 20);
 const SEED = process.env.FUZZ_SEED ? Number(process.env.FUZZ_SEED) : undefined;
 const ROOT = path.resolve(import.meta.dirname, "../..");
 const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
