@@ -11,8 +11,9 @@ const config: Knex.Config = {
   connection: {
     host: env.DB_HOST,
     port: env.DB_PORT,
-    user: env.DB_USER,
-    password: env.DB_PASSWORD,
+    // Migrations and the seed run as the schema's owner; the app's own user may not alter tables.
+    user: env.DB_MIGRATION_USER ?? env.DB_USER,
+    password: env.DB_MIGRATION_USER ? env.DB_MIGRATION_PASSWORD : env.DB_PASSWORD,
     database: env.DB_NAME,
     charset: "utf8mb4",
     timezone: "Z",

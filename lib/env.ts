@@ -36,6 +36,10 @@ export const serverEnvSchema = z.object({
   DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, "letters, digits and _ only").default("kalibore"),
   DB_USER: z.string().min(1).default("kalibore"),
   DB_PASSWORD: z.string().min(1).default("kalibore-local"),
+  // The schema's owner, for migrations and the seed only; the app itself connects as DB_USER, which may not
+  // change or delete audit rows (scripts/db-grants.ts). Unset: migrations run as DB_USER.
+  DB_MIGRATION_USER: z.string().min(1).optional(),
+  DB_MIGRATION_PASSWORD: z.string().min(1).optional(),
   DB_POOL_MAX: count(10, 1, "a whole number of connections, at least 1"),
   S3_ENDPOINT: z.url("must be a full address such as http://127.0.0.1:4569").default("http://127.0.0.1:4569"),
   S3_REGION: z.string().min(1).default("us-east-1"),
@@ -54,6 +58,8 @@ export const serverEnvSchema = z.object({
   AUTH_RATE_LIMIT_WINDOW_S: count(60, 1, "a whole number of seconds, at least 1"),
   TRUSTED_PROXY_HEADER: z.string().regex(/^[A-Za-z0-9-]+$/, "must be a header name such as X-Forwarded-For").optional(),
   SESSION_MAX_AGE_S: count(60 * 60 * 12, 300, "a whole number of seconds, at least 300"),
+  /** Bearer token a scheduler sends to POST /api/jobs/*; unset, those routes refuse every call. */
+  JOBS_TOKEN: z.string().min(32, "must be at least 32 characters (openssl rand -base64 48)").regex(/^[\x21-\x7e]+$/, "must be printable characters without spaces").optional(),
 })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== "production") return;

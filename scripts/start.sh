@@ -5,17 +5,8 @@
 # Ctrl-C (or `npm run stop` from another terminal) stops everything it started.
 source "$(dirname "$0")/lib/common.sh"
 
-load_env_file
-export NODE_ENV=production NEXT_TELEMETRY_DISABLED=1
-export PORT="${PORT:-3000}" HOST="${HOST:-127.0.0.1}"
-export APP_URL="${APP_URL:-http://localhost:$PORT}"
-export DB_HOST="${DB_HOST:-127.0.0.1}" DB_PORT="${DB_PORT:-3307}" DB_NAME="${DB_NAME:-kalibore}"
-export DB_USER="${DB_USER:-kalibore}" DB_PASSWORD="${DB_PASSWORD:-kalibore-local}"
-export S3_FAKE_PORT="${S3_FAKE_PORT:-4569}" SMTP_FAKE_PORT="${SMTP_FAKE_PORT:-2525}"
-export S3_ENDPOINT="${S3_ENDPOINT:-http://127.0.0.1:$S3_FAKE_PORT}" SMTP_HOST="${SMTP_HOST:-127.0.0.1}" SMTP_PORT="${SMTP_PORT:-$SMTP_FAKE_PORT}"
-DATA_DIR="${KALIBORE_DATA_DIR:-$ROOT/.data}"
+local_instance_env
 RUN_DIR="$DATA_DIR/run"
-ensure_auth_secret "$DATA_DIR/auth-secret"
 
 cleanup() {
   local code=$?
@@ -48,11 +39,11 @@ if [[ "$S3_ENDPOINT" == "http://127.0.0.1:$S3_FAKE_PORT" || "$SMTP_HOST:$SMTP_PO
   wait_port "$SMTP_FAKE_PORT" "the SMTP fake" 20
 fi
 
-start_mariadb "$DATA_DIR/mariadb" "$DB_PORT" "$DB_NAME" "$DB_USER" "$DB_PASSWORD"
+start_mariadb "$DATA_DIR/mariadb" "$DB_PORT" "$DB_NAME" "$DB_USER" "$DB_PASSWORD" "$DB_MIGRATION_USER" "$DB_MIGRATION_PASSWORD"
 printf '%s\n' "${STARTED_PIDS[@]}" >"$RUN_DIR/start.pids"
 
 say "running database migrations"
-NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts
+migrate_and_grant
 
 say "seeding the demo scenario if the database is empty"
 node --conditions=react-server --import tsx scripts/seed.ts --if-empty

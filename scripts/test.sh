@@ -7,7 +7,11 @@ source "$(dirname "$0")/lib/common.sh"
 
 export NODE_ENV=production NEXT_TELEMETRY_DISABLED=1 CI="${CI:-}"
 export TEST_DATA_DIR="$ROOT/.test-data"
+# DB_USER owns the test schemas (creates, migrates, resets them; the integration tests run as it).
+# TEST_APP_DB_USER is the app's user: table grants only, the audit trail append-only; the browser
+# tests' server runs as it.
 export DB_HOST=127.0.0.1 DB_PORT="${TEST_DB_PORT:-3317}" DB_USER=kalibore_test DB_PASSWORD=kalibore-test-pw
+export TEST_APP_DB_USER=kalibore_test_app TEST_APP_DB_PASSWORD=kalibore-test-app-pw
 export S3_FAKE_PORT="${TEST_S3_PORT:-4579}" SMTP_FAKE_PORT="${TEST_SMTP_PORT:-2535}"
 export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT" S3_BUCKET=kalibore-test SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_FAKE_PORT"
 export MAIL_FAKE_DIR="$TEST_DATA_DIR/mail" S3_FAKE_DIR="$TEST_DATA_DIR/s3"
@@ -16,6 +20,9 @@ export AUTH_RATE_LIMIT_MAX=5 AUTH_RATE_LIMIT_WINDOW_S=60
 # A fresh random secret per run: production mode refuses a missing or published one.
 BETTER_AUTH_SECRET="$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')"
 export BETTER_AUTH_SECRET
+# The scheduler's token for POST /api/jobs/* (the tests call the digest job with it).
+JOBS_TOKEN="$(node -e 'process.stdout.write(require("crypto").randomBytes(36).toString("base64url"))')"
+export JOBS_TOKEN
 RESULTS="$TEST_DATA_DIR/results"
 # For development only: TEST_SUITES="unit integration" runs a part, TEST_FILTER narrows
 # vitest to matching files and Playwright to matching spec files. CI runs everything.
@@ -44,8 +51,8 @@ port_free "$S3_FAKE_PORT" "the test S3 fake"; port_free "$SMTP_FAKE_PORT" "the t
 S3_FAKE_ALLOWED_ORIGINS="http://localhost:$E2E_PORT" node --import tsx scripts/fakes.ts &
 STARTED_PIDS+=("$!")
 wait_port "$S3_FAKE_PORT" "the test S3 fake" 20 "$!"
-start_mariadb "$TEST_DATA_DIR/mariadb" "$DB_PORT" kalibore_it "$DB_USER" "$DB_PASSWORD"
-mariadb --no-defaults --socket="$MARIADB_SOCKET" -uroot -e "CREATE DATABASE kalibore_e2e CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'127.0.0.1'; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'localhost'; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'127.0.0.1'; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'localhost';"
+start_mariadb "$TEST_DATA_DIR/mariadb" "$DB_PORT" kalibore_it "$TEST_APP_DB_USER" "$TEST_APP_DB_PASSWORD" "$DB_USER" "$DB_PASSWORD"
+mariadb --no-defaults --socket="$MARIADB_SOCKET" -uroot -e "CREATE DATABASE kalibore_e2e CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'127.0.0.1' WITH GRANT OPTION; GRANT ALL ON kalibore_e2e.* TO '$DB_USER'@'localhost' WITH GRANT OPTION; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'127.0.0.1'; GRANT CREATE, DROP ON *.* TO '$DB_USER'@'localhost';"
 
 status=0
 if runs unit; then
@@ -65,10 +72,12 @@ fi
 
 say "end-to-end tests: production build, demo data, Chromium"
 export DB_NAME=kalibore_e2e APP_URL="http://localhost:$E2E_PORT"
+# The server under test connects as the app's user; migrations and the seed run as the owner.
+export DB_MIGRATION_USER="$DB_USER" DB_MIGRATION_PASSWORD="$DB_PASSWORD" DB_USER="$TEST_APP_DB_USER" DB_PASSWORD="$TEST_APP_DB_PASSWORD"
 # The limit stays on; the browser tests sign in as many people from one address, so it is
 # wider here. tests/integration/sign-in-rate-limit.test.ts checks the limit itself.
 export AUTH_RATE_LIMIT_MAX=60
-NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev/null
+migrate_and_grant >/dev/null
 node --conditions=react-server --import tsx scripts/seed.ts --if-empty >/dev/null
 npx next build >"$RESULTS/build.log" 2>&1 || { tail -n 40 "$RESULTS/build.log"; fail "next build failed"; }
 PLAYWRIGHT_JSON_OUTPUT_NAME="$RESULTS/e2e.json" npx playwright test --reporter=list,json $TEST_FILTER || status=1

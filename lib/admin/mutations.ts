@@ -6,6 +6,7 @@ import { ActionError } from "@/lib/auth/actions";
 import type { Role } from "@/lib/auth/roles";
 import { db as defaultDb } from "@/lib/db/knex";
 import type { ProfileData } from "./schemas";
+import { inTransaction } from "@/lib/db/transaction";
 
 type Actor = { id: string; name: string };
 
@@ -34,7 +35,7 @@ async function lockUser(trx: Knex.Transaction, userId: string) {
 
 /** Sets a user's role and vessel list (replacing the old list). Keeps at least one active admin. */
 export async function setUserAccess(actor: Actor, o: { userId: string; role: Role; vesselIds: number[] }, db: Knex = defaultDb): Promise<void> {
-  await db.transaction(async (trx) => {
+  await inTransaction(db, async (trx) => {
     const user = await lockUser(trx, o.userId);
     if (user.role === "admin" && o.role !== "admin") {
       if (o.userId === actor.id) throw new ActionError("You cannot take away your own admin role.", { role: ["Ask another admin to change this."] });
@@ -65,7 +66,7 @@ export async function setUserAccess(actor: Actor, o: { userId: string; role: Rol
  * every request as a second guard.
  */
 export async function deactivateUser(actor: Actor, userId: string, reason: string | null, db: Knex = defaultDb): Promise<void> {
-  await db.transaction(async (trx) => {
+  await inTransaction(db, async (trx) => {
     const user = await lockUser(trx, userId);
     if (userId === actor.id) throw new ActionError("You cannot deactivate your own account.");
     if (user.role === "admin" && (await otherActiveAdmins(trx, userId)) === 0) throw new ActionError("This is the last active admin; it cannot be deactivated.");
@@ -76,7 +77,7 @@ export async function deactivateUser(actor: Actor, userId: string, reason: strin
 }
 
 export async function reactivateUser(actor: Actor, userId: string, db: Knex = defaultDb): Promise<void> {
-  await db.transaction(async (trx) => {
+  await inTransaction(db, async (trx) => {
     await lockUser(trx, userId);
     await trx("user").where({ id: userId }).update({ banned: false, banReason: null, banExpires: null, updatedAt: new Date() });
     await writeAudit({ actor, action: "user.reactivate", entityType: "user", entityId: userId }, trx);
@@ -97,7 +98,7 @@ export type SaveVesselOptions = {
 /** Creates or updates a vessel (and, if named, its new managing company). */
 export async function saveVessel(actor: Actor, o: SaveVesselOptions, db: Knex = defaultDb): Promise<number> {
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       let companyId = o.companyId;
       if (o.newCompanyName) {
         const existing = await trx("companies").where({ name: o.newCompanyName }).first<{ id: number } | undefined>("id");
@@ -130,7 +131,7 @@ export type CreateEngineOptions = { vesselId: number; profileId: number; serial:
 /** Creates a main engine with its cylinder units numbered 1 … n. The unique serial makes a double submit harmless. */
 export async function createEngine(actor: Actor, o: CreateEngineOptions, db: Knex = defaultDb): Promise<number> {
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       if (!(await trx("vessels").where({ id: o.vesselId }).first("id"))) throw new ActionError("That vessel no longer exists.", { vesselId: ["Choose again."] });
       if (!(await trx("engine_profiles").where({ id: o.profileId }).first("id"))) throw new ActionError("That profile no longer exists.", { profileId: ["Choose again."] });
       const [id] = await trx("main_engines").insert({
@@ -182,7 +183,7 @@ export async function saveProfile(actor: Actor, p: ProfileData, db: Knex = defau
     notes: p.notes,
   };
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       let id: number;
       if (p.profileId) {
         const n = await trx("engine_profiles").where({ id: p.profileId }).update(row);

@@ -2,6 +2,7 @@ import "server-only";
 import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { db as defaultDb } from "@/lib/db/knex";
+import { inTransaction } from "@/lib/db/transaction";
 
 /*
  * The per-account half of the sign-in limit (the per-address half is better-auth's rate
@@ -41,7 +42,7 @@ export async function reserveSignInAttempt(email: string, now = new Date(), db: 
   const key = accountKey(email);
   // The row is made outside the transaction: concurrent inserts inside it deadlock on the key.
   await db.raw("INSERT IGNORE INTO sign_in_throttle (account_key, failures, last_attempt_at) VALUES (?, 0, ?)", [key, now]);
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await trx("sign_in_throttle").where({ account_key: key }).forUpdate().first("failures", "last_attempt_at");
     const last = new Date(row.last_attempt_at).getTime();
     const failures = now.getTime() - last > SIGN_IN_THROTTLE.forgetAfterS * 1000 ? 0 : Number(row.failures);

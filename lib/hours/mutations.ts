@@ -1,10 +1,12 @@
 import "server-only";
 import type { Knex } from "knex";
 import { recomputeUnits } from "@/lib/analysis/recompute";
+import { alertUnitsInsideHorizon } from "@/lib/notifications/alert-mutations";
 import { writeAudit } from "@/lib/audit/mutations";
 import { ActionError } from "@/lib/auth/actions";
 import { db as defaultDb } from "@/lib/db/knex";
 import type { LogRunningHoursInput } from "./schemas";
+import { inTransaction } from "@/lib/db/transaction";
 
 const DAY_MS = 86_400_000;
 
@@ -20,7 +22,7 @@ export async function logRunningHours(
   vesselId: number,
   db: Knex = defaultDb,
 ): Promise<{ duplicate: boolean }> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     // Lock the engine row so two entries for one engine are checked one after the other.
     await trx("main_engines").where({ id: input.engineId }).forUpdate().first("id");
     const same = await trx("running_hours_log").where({ engine_id: input.engineId, logged_on: input.loggedOn }).first("engine_hours");
@@ -71,6 +73,8 @@ export async function logRunningHours(
       trx,
     );
     await recomputeUnits(trx, { engineIds: [input.engineId] });
+    // A new counter reading changes how fast the engine runs, so dates to the limit move.
+    await alertUnitsInsideHorizon(trx, { engineIds: [input.engineId] });
     return { duplicate: false };
-  });
+  }, { idempotent: true }); // the same reading sent again is answered as a duplicate
 }

@@ -2,10 +2,12 @@ import "server-only";
 import type { Knex } from "knex";
 import { recomputeUnits } from "@/lib/analysis/recompute";
 import { writeAudit } from "@/lib/audit/mutations";
+import { closePlansForInspection } from "@/lib/outlook/mutations";
 import { isRole } from "@/lib/auth/roles";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
+import { alertInspectionApproved, alertInspectionReturned, alertInspectionSubmitted, alertUnitsInsideHorizon } from "@/lib/notifications/alert-mutations";
 import { removeObject } from "@/lib/photos/storage";
 import { approvalRefusal } from "./approval";
 import { toWearProfile, type InspectionContext } from "./context";
@@ -14,6 +16,7 @@ import { loadInspectionContext } from "./context-queries";
 import { getInspectionDto, getInspectionRow, type InspectionRow } from "./queries";
 import { checkHours, derivedLinerHours, structuralErrors, submissionProblems, type Problem } from "./rules";
 import type { CreateInspectionInput, InspectionDraft, InspectionState } from "./schemas";
+import { inTransaction } from "@/lib/db/transaction";
 
 /*
  * The inspection workflow: create → save draft (optimistic lock on `revision`) →
@@ -83,7 +86,7 @@ export async function createInspection(actor: Actor, input: CreateInspectionInpu
     return { id: again.id, created: false };
   }
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       // Serialises creates on this unit: the second waits here and then finds the first's draft.
       await trx("cylinder_units").where({ id: input.unitId }).forUpdate().first("id");
       const open = await openDraftOf(trx, input.unitId);
@@ -134,7 +137,8 @@ export async function createInspection(actor: Actor, input: CreateInspectionInpu
         trx,
       );
       return { id, created: true };
-    });
+      // Idempotent: a run repeated after a lost commit finds its own draft (the unit's open draft, or the token).
+    }, { idempotent: true });
   } catch (err) {
     // Two identical requests raced: the loser's insert hits the unique token; answer with the winner's row.
     if (isDuplicateToken(err)) {
@@ -226,7 +230,7 @@ export async function saveDraft(
   db: Knex = defaultDb,
   options: { saveId?: string } = {},
 ): Promise<SavedDraft> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await getInspectionRow(trx, id, true);
     if (!row) throw new RecordError(404, "Inspection not found.");
     if (!EDITABLE.includes(row.state)) await conflict(trx, id, `This inspection is ${row.state} and can no longer be edited as a draft.`);
@@ -269,14 +273,14 @@ async function completeProblems(trx: Knex.Transaction, row: InspectionRow): Prom
 
 /** Draft or returned → submitted, when the record is complete. A repeated submit answers with the current state. */
 export async function submitInspection(actor: Actor, id: number, revision: number | undefined, db: Knex = defaultDb): Promise<Transition> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await loadForTransition(trx, id);
     if (row.state === "submitted") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (!EDITABLE.includes(row.state)) await conflict(trx, id, `This inspection is ${row.state}; only a draft can be submitted.`);
     if (revision !== undefined && revision !== row.revision) {
       await conflict(trx, id, "The draft on the server is newer than yours. Nothing was submitted: compare and choose first.");
     }
-    const { problems } = await completeProblems(trx, row);
+    const { problems, ctx, draft } = await completeProblems(trx, row);
     if (problems.length) refuse(problems);
     const n = await trx("inspections")
       .where({ id })
@@ -284,6 +288,8 @@ export async function submitInspection(actor: Actor, id: number, revision: numbe
       .update({ state: "submitted", submitted_by: actor.id, submitted_at: new Date(), revision: row.revision + 1 });
     if (n !== 1) await conflict(trx, id, "This inspection changed state meanwhile.");
     await writeAudit({ actor, action: "inspection.submit", entityType: "inspection", entityId: id, vesselId: row.vesselId, detail: { from: row.state, version: row.version } }, trx);
+    const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
+    await alertInspectionSubmitted(trx, id, { maxWearMm: analysis.maxWear?.wearMm ?? null, revision: row.revision + 1 });
     return { id, state: "submitted", revision: row.revision + 1, alreadyDone: false };
   });
 }
@@ -295,11 +301,14 @@ export async function submitInspection(actor: Actor, id: number, revision: numbe
  * recomputed in the same transaction so the fleet screens show the new readings at once.
  */
 export async function approveInspection(actor: Actor, id: number, db: Knex = defaultDb): Promise<Transition> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await loadForTransition(trx, id);
     if (row.state === "approved") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (row.state !== "submitted") await conflict(trx, id, `This inspection is ${row.state}; only a submitted inspection can be approved.`);
-    const parties = await trx("inspections").where({ id }).first("created_by as createdBy", "submitted_by as submittedBy");
+    const parties = await trx("inspections").where({ id }).first("created_by as createdBy", "submitted_by as submittedBy", "import_id as importId");
+    // Past records from a file are approved together, with their import (lib/imports/mutations.ts).
+    if (parties.importId) throw new RecordError(409, `This record came from import ${parties.importId} of past records; approve that import as a whole.`);
+    delete parties.importId;
     const approver = await trx("user").where({ id: actor.id }).first("role");
     const refusal = isRole(approver?.role) ? approvalRefusal({ id: actor.id, role: approver.role }, parties) : "Your role does not approve inspection records.";
     if (refusal) throw new RecordError(403, refusal);
@@ -317,6 +326,7 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       );
     }
     await recomputeUnits(trx, { unitIds: [row.unitId] });
+    await closePlansForInspection(trx, id, actor);
     const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
     await writeAudit(
       {
@@ -335,19 +345,22 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       },
       trx,
     );
+    await alertInspectionApproved(trx, id, actor, { maxWearMm: analysis.maxWear?.wearMm ?? null, maxOvalityMm: analysis.maxOvality?.ovalityMm ?? null });
+    await alertUnitsInsideHorizon(trx, { unitIds: [row.unitId] });
     return { id, state: "approved", revision: row.revision + 1, alreadyDone: false };
   });
 }
 
 /** Submitted → returned with the chief engineer's comment; the engineer corrects and submits again. */
 export async function returnInspection(actor: Actor, id: number, comment: string, db: Knex = defaultDb): Promise<Transition> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await loadForTransition(trx, id);
     if (row.state === "returned") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (row.state !== "submitted") await conflict(trx, id, `This inspection is ${row.state}; only a submitted inspection can be returned.`);
     const n = await trx("inspections").where({ id, state: "submitted" }).update({ state: "returned", return_comment: comment, revision: row.revision + 1 });
     if (n !== 1) await conflict(trx, id, "This inspection changed state meanwhile.");
     await writeAudit({ actor, action: "inspection.return", entityType: "inspection", entityId: id, vesselId: row.vesselId, detail: { comment, version: row.version } }, trx);
+    await alertInspectionReturned(trx, id, actor, comment, row.revision + 1);
     return { id, state: "returned", revision: row.revision + 1, alreadyDone: false };
   });
 }
@@ -365,7 +378,7 @@ export async function amendInspection(actor: Actor, id: number, reason: string, 
     return { id: byToken.id, created: false };
   }
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       const row = await loadForTransition(trx, id);
       if (row.state !== "approved") await conflict(trx, id, `Only an approved inspection can be amended; this one is ${row.state}.`);
       const open = await trx("inspections").where({ supersedes_id: id }).whereIn("state", ["draft", "submitted", "returned"]).first("id");
@@ -411,7 +424,7 @@ export async function amendInspection(actor: Actor, id: number, reason: string, 
         trx,
       );
       return { id: newId as number, created: true };
-    });
+    }, { idempotent: true });
   } catch (err) {
     if (isDuplicateToken(err)) {
       const row = await db("inspections").where({ client_token: clientToken }).first("id");
@@ -431,7 +444,7 @@ export type DiscardedDraft = { id: number; unitId: number; deletedObjects: numbe
  * The audit entry keeps what was discarded, so the trail still explains the gap.
  */
 export async function discardDraft(actor: Actor, id: number, db: Knex = defaultDb): Promise<DiscardedDraft> {
-  const { keys, unitId } = await db.transaction(async (trx) => {
+  const { keys, unitId } = await inTransaction(db, async (trx) => {
     const row = await getInspectionRow(trx, id, true);
     if (!row) throw new RecordError(404, "Inspection not found.");
     if (row.state !== "draft") {

@@ -9,6 +9,7 @@ import { getPendingFile, getPhotoObjects, listPhotos } from "@/lib/inspections/p
 import { PHOTO_MAX_BYTES, PHOTO_TYPES, type PhotoDto } from "@/lib/inspections/schemas";
 import { sniffImageType } from "./sniff";
 import { objectSize, presignUpload, readObject, removeObject, writeObject } from "./storage";
+import { inTransaction } from "@/lib/db/transaction";
 
 /*
  * Photos in three steps: a slot (a pending ledger row and a presigned PUT), the upload
@@ -42,7 +43,7 @@ export async function createPhotoSlot(
   if (!contentType) {
     throw new RecordError(400, `A ${input.contentType || "file of unknown type"} is not a photo: use JPEG, PNG, WebP or HEIC. (field: contentType)`, { field: "contentType" });
   }
-  const { fileId, key } = await db.transaction(async (trx) => {
+  const { fileId, key } = await inTransaction(db, async (trx) => {
     const row = await lockEditableInspection(trx, inspectionId);
     const key = `inspections/${inspectionId}/${randomUUID()}`;
     const [fileId] = await trx("stored_files").insert({
@@ -145,7 +146,7 @@ export async function completePhoto(
 
   let photoId: number;
   try {
-    photoId = await db.transaction(async (trx) => {
+    photoId = await inTransaction(db, async (trx) => {
       const row = await lockEditableInspection(trx, inspectionId);
       const claimed = await trx("stored_files")
         .where({ id: file.id, status: "pending" })
@@ -206,7 +207,7 @@ export async function completePhoto(
  * the record (an amendment shares its original's photos) still refers to them.
  */
 export async function deletePhoto(actor: Actor, inspectionId: number, photoId: number, db: Knex = defaultDb): Promise<{ deletedObjects: number }> {
-  const keys = await db.transaction(async (trx) => {
+  const keys = await inTransaction(db, async (trx) => {
     const row = await lockEditableInspection(trx, inspectionId);
     const photo = await getPhotoObjects(inspectionId, photoId, trx);
     if (!photo) throw new RecordError(404, "Photo not found.");

@@ -1,5 +1,6 @@
 import knex from "knex";
 import { testDb } from "./db";
+import { appUserHosts, grantAppUser } from "../../scripts/lib/app-grants";
 import { migrationSource } from "./migration-source";
 
 /**
@@ -20,5 +21,7 @@ export default async function setup() {
   await admin.destroy();
   const db = testDb(name);
   await db.migrate.latest({ migrationSource });
+  // The app's own user (scripts/test.sh creates it) gets its table grants, as npm start gives them.
+  if (process.env.TEST_APP_DB_USER) await grantAppUser(db, { database: name, appUser: process.env.TEST_APP_DB_USER, hosts: appUserHosts() });
   await db.destroy();
 }
