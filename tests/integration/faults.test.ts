@@ -1,4 +1,4 @@
-import fs from "node:fs";
+import fs, { readFileSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { asCaller, mockedCookies, mockedHeaders } from "../support/next-mocks";
@@ -10,10 +10,12 @@ import { createConnection, type Connection } from "mysql2/promise";
 import { GET as getRoute, PUT as putRoute } from "@/app/api/inspections/[inspectionId]/route";
 import { POST as approveRoute } from "@/app/api/inspections/[inspectionId]/approve/route";
 import { POST as completeRoute } from "@/app/api/inspections/[inspectionId]/photos/complete/route";
+import { POST as commitImportRoute } from "@/app/api/imports/[importId]/commit/route";
 import { db } from "@/lib/db/knex";
 import { drainOutbox, outboxIdle, queueMail } from "@/lib/mail/outbox";
 import { objectSize } from "@/lib/photos/storage";
 import { changedTables, snapshotTables } from "../support/fuzz";
+import { p640Engine, previewHistory } from "../support/import-world";
 import { draftOn, makeImage, submittedOn, uploadToSlot } from "../support/inspection-builders";
 import { request } from "../support/matrix";
 import { buildRoleWorld, WORLD_PASSWORD, type RoleWorld } from "../support/role-world";
@@ -34,7 +36,8 @@ let engineerCookie = "";
 let chiefCookie = "";
 const person = (u: { id: string; name: string }) => ({ id: u.id, name: u.name });
 const params = (id: number) => ({ params: Promise.resolve({ inspectionId: String(id) }) }) as never;
-const TABLES = ["inspections", "liner_readings", "ring_readings", "checklist_entries", "audit_log", "unit_analysis", "stored_files", "inspection_photos"];
+const SOCKET = path.join(process.env.TEST_DATA_DIR ?? ".test-data", "mariadb", "run", "mysqld.sock");
+const TABLES = ["inspections", "liner_readings", "ring_readings", "checklist_entries", "audit_log", "unit_analysis", "stored_files", "inspection_photos", "gauge_imports"];
 const others = async () => ((await db.raw("SHOW TABLES"))[0] as Record<string, string>[]).map((r) => Object.values(r)[0]).filter((t) => !TABLES.includes(t));
 
 beforeAll(async () => {
@@ -55,7 +58,8 @@ afterAll(async () => {
  * (`sql`: LOCK TABLES, or rows locked FOR UPDATE in an open transaction), so it stops half-way.
  */
 async function hold(sql: string): Promise<Connection> {
-  const conn = await createConnection({ host: "127.0.0.1", port: Number(process.env.DB_PORT), user: process.env.DB_USER, password: process.env.DB_PASSWORD, database: process.env.DB_NAME });
+  // As MariaDB's root over the socket: the app's user may not lock the audit trail (it may only add to it).
+  const conn = await createConnection({ socketPath: SOCKET, user: "root", database: process.env.DB_NAME });
   conn.on("error", () => undefined);
   if (/FOR UPDATE/i.test(sql)) await conn.query("BEGIN");
   await conn.query(sql);
@@ -67,7 +71,7 @@ async function hold(sql: string): Promise<Connection> {
  * is half-way. Asked as MariaDB's root over the socket (the app's user cannot see others' transactions).
  */
 async function halfWay(): Promise<void> {
-  const root = await createConnection({ socketPath: path.join(process.env.TEST_DATA_DIR ?? ".test-data", "mariadb", "run", "mysqld.sock"), user: "root" });
+  const root = await createConnection({ socketPath: SOCKET, user: "root" });
   try {
     const until = Date.now() + 20_000;
     for (;;) {
@@ -152,6 +156,35 @@ describe("MariaDB killed half-way through a request", () => {
     expect(again.status, await again.clone().text()).toBe(200);
     expect((await db("inspections").where({ id: s.id }).first("state")).state).toBe("approved");
     expect(await db("unit_analysis").where({ unit_id: units[1] }).first("unit_id")).toBeDefined();
+  }, 120_000);
+});
+
+describe("MariaDB killed half-way through an import", () => {
+  it("the import's commit is all or nothing: no record of it afterwards, and it imports whole when committed again", async () => {
+    const engineer = person(world.users.engineer);
+    const { engineId } = await p640Engine(db, world, "fl");
+    const text = readFileSync("fixtures/imports/clean.csv", "utf8").replaceAll("MG-0417", `MK-${Date.now().toString(36)}`);
+    const i = await previewHistory(engineer, world.vessel1, engineId, text);
+    const before = await snapshotTables(db, await others());
+    const importParams = { params: Promise.resolve({ importId: String(i.id) }) } as never;
+    // The commit writes the records, their readings and rings, then the audit trail: it waits there.
+    const held = await hold("LOCK TABLES audit_log WRITE");
+    try {
+      asCaller(engineerCookie);
+      const committing = commitImportRoute(request("POST", `/api/imports/${i.id}/commit`, { confirmWarnings: true }), importParams);
+      await halfWay();
+      await killMariadb();
+      await expectUnavailable(await committing, /database/i);
+    } finally {
+      held.destroy();
+      if (!(await portOpen(DB_PORT))) await startMariadb();
+    }
+    expect(changedTables(before, await snapshotTables(db, await others())), "half-written import after the crash").toEqual([]);
+    expect(await db("inspections").where({ import_id: i.id }).count({ n: "*" }).first()).toMatchObject({ n: 0 });
+
+    const again = await commitImportRoute(request("POST", `/api/imports/${i.id}/commit`, { confirmWarnings: true }), importParams);
+    expect(again.status, await again.clone().text()).toBe(200);
+    expect(Number((await db("inspections").where({ import_id: i.id }).count({ n: "*" }).first())!.n)).toBeGreaterThan(0);
   }, 120_000);
 });
 

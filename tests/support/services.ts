@@ -79,6 +79,7 @@ export async function startMariadb(): Promise<void> {
       "--character-set-server=utf8mb4",
       "--collation-server=utf8mb4_unicode_ci",
       "--max-connections=300",
+      "--local-infile=1",
     ],
     { detached: true, stdio: "ignore" },
   );
