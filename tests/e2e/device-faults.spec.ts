@@ -1,6 +1,6 @@
 import { expect, test, type Page, type Route } from "@playwright/test";
 import sharp from "sharp";
-import { openNewSheet, signIn } from "./helpers";
+import { discardDraft, openNewSheet, signIn } from "./helpers";
 
 /*
  * The device's side of a server fault: while the database is down the API answers 503, and
@@ -49,6 +49,7 @@ test.describe("[ENGINEER][INSPECTION] the server's services fail while the sheet
     await expect(page.locator("#cell-0-0")).toHaveValue(value(0));
 
     // The object store goes down during a photo upload (same sheet).
+    await expect(status(page)).toHaveAttribute("data-save-status", "saved");
     const toStore = (u: URL) => u.port === String(process.env.S3_FAKE_PORT ?? 4579);
     const storeDown = (route: Route) => route.abort("connectionrefused");
     await page.route(toStore, storeDown);
@@ -62,5 +63,6 @@ test.describe("[ENGINEER][INSPECTION] the server's services fail while the sheet
     await expect(page.getByText("now stored")).toBeVisible({ timeout: 45_000 });
     await expect(page.getByTestId("photos-waiting")).toHaveCount(0);
     await expect(page.locator("#photos img").first()).toBeVisible();
+    await discardDraft(page, inspectionId);
   });
 });

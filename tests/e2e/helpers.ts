@@ -42,3 +42,9 @@ export async function openNewSheet(page: Page, cylinder: RegExp, crew = "3/E") {
   await expect(page).toHaveURL(/\/inspections\/\d+\/edit$/);
   return { inspectionId: Number(page.url().match(/inspections\/(\d+)\/edit/)![1]), unitId, boreMm: analysis.profile.boreMm };
 }
+
+/** Discards a draft this test opened (as its author), so the unit is free for the tests after it. */
+export async function discardDraft(page: Page, inspectionId: number) {
+  const res = await page.request.delete(`/api/inspections/${inspectionId}`, { headers: { origin: new URL(page.url()).origin } });
+  expect(res.status(), await res.text()).toBe(200);
+}

@@ -1,5 +1,5 @@
 import { expect, test, type Page, type Route } from "@playwright/test";
-import { DEMO, openNewSheet, signIn } from "./helpers";
+import { DEMO, discardDraft, openNewSheet, signIn } from "./helpers";
 
 /*
  * A lost answer: the draft reaches the server and is saved, but the network drops before
@@ -59,6 +59,7 @@ test.describe("[ENGINEER][INSPECTION] a save whose answer was lost", () => {
 
     // The server holds all three readings.
     await expect.poll(() => onServer(page, inspectionId), { timeout: 15_000 }).toEqual([value(0), value(1), value(2)]);
+    await discardDraft(page, inspectionId);
   });
 
   test("a lost answer, more typing with no network, then the sheet is opened again: saved, no conflict", async ({ page, context }) => {
@@ -85,5 +86,6 @@ test.describe("[ENGINEER][INSPECTION] a save whose answer was lost", () => {
     await expect.poll(() => onServer(again, inspectionId), { timeout: 30_000 }).toEqual([value(0), value(1), value(2)]);
     await expect(status(again)).toHaveAttribute("data-save-status", "saved");
     await expect(again.getByText("Not saved: changed elsewhere")).toHaveCount(0);
+    await discardDraft(again, inspectionId);
   });
 });
