@@ -6,6 +6,7 @@ import { digestEmail } from "@/lib/mail/templates";
 import { appLink, PREFERENCES_PATH } from "./alert-mutations";
 import { composeDigest, type DigestFacts, type DigestPerson, type DigestRecord } from "./digest";
 import { unitsInsideHorizon } from "./horizon-queries";
+import { loadFleetOutlook, outlookDigestLines } from "./outlook-alerts";
 import { subscribedPeople } from "./recipient-queries";
 import { isoWeek } from "./topics";
 
@@ -51,7 +52,8 @@ async function gatherFacts(db: Knex, vesselIds: number[], week: string, previous
         .select("x.unit_id as unitId", "e.vessel_id as vesselId", "v.name as vesselName", "u.cylinder_no as cylinderNo", "p.band as from", "x.band as to")
     : [];
   const limits = await unitsInsideHorizon(db, { vesselIds }, now);
-  return { records, bandMoves, limits, renewals: [], shortfalls: [] };
+  const { renewals, shortfalls } = outlookDigestLines(await loadFleetOutlook(db, now.toISOString().slice(0, 10), { vessels: vesselIds }));
+  return { records, bandMoves, limits, renewals, shortfalls };
 }
 
 /** Runs the week's digest once; safe to repeat and to run on two instances at once. */
