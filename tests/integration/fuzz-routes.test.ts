@@ -215,7 +215,10 @@ describe.each(Object.keys(API_ROUTE_RULES))("fuzzed %s", (key) => {
         expect(res.status, what).toBeLessThan(500);
         if (res.status >= 400) {
           expect(reasonOf(res.json), `a refusal must say why: ${what}`).not.toBe("");
-          if (before) expect(changedTables(before, await settledSnapshot(c.mayWrite)), `a refused request changed the database: ${what}`).toEqual([]);
+          if (before) {
+            const changed = changedTables(before, await settledSnapshot(c.mayWrite));
+            expect(changed, `a refused request changed the database (${changed.join("; ")}): ${what}`).toEqual([]);
+          }
         }
       }),
       { numRuns: RUNS, seed: SEED, endOnFailure: true, includeErrorInReport: true },
