@@ -10,11 +10,20 @@ trap 'exit 130' INT TERM
 ensure_node_modules
 ensure_mariadb
 start_mariadb "$ROOT/.bench-data/mariadb" "$DB_PORT" "$DB_NAME" "$DB_USER" "$DB_PASSWORD"
+# The importer's benchmark stores its files: the S3 fake, on ports of the benchmark's own.
+export S3_FAKE_PORT="${BENCH_S3_PORT:-4589}" SMTP_FAKE_PORT="${BENCH_SMTP_PORT:-2545}" S3_FAKE_DIR="$ROOT/.bench-data/s3" MAIL_FAKE_DIR="$ROOT/.bench-data/mail"
+export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT" SMTP_PORT="$SMTP_FAKE_PORT"
+port_free "$S3_FAKE_PORT" "the benchmark's S3 fake"
+node --import tsx scripts/fakes.ts >/dev/null &
+STARTED_PIDS+=("$!")
+wait_port "$S3_FAKE_PORT" "the benchmark's S3 fake" 20 "$!"
 NODE_OPTIONS="--import tsx" npx knex migrate:latest --knexfile knexfile.ts >/dev/null
 node --conditions=react-server --import tsx scripts/seed.ts --if-empty --scale "${BENCH_SCALE:-200}" --no-recompute
 # Timed as the product runs it: bundled ahead of time (as the Next.js server bundle is), not
 # through tsx's on-the-fly transform, whose module wrappers alone doubled the per-reading cost.
-npx esbuild scripts/bench.ts --bundle --platform=node --format=esm --packages=external --log-level=warning --outfile="$ROOT/.bench-data/bench.mjs"
+# The importer's mutations reach next/navigation and next/headers (through the company settings),
+# which cannot load outside a Next.js server: a stub stands in, since the benchmark never calls them.
+npx esbuild scripts/bench.ts --bundle --platform=node --format=esm --packages=external --log-level=warning --alias:next/navigation=./scripts/lib/bench-next-stub.ts --alias:next/headers=./scripts/lib/bench-next-stub.ts --outfile="$ROOT/.bench-data/bench.mjs"
 node --conditions=react-server --expose-gc "$ROOT/.bench-data/bench.mjs"
 # (c) the entry screens' first-load JavaScript, from the last production build when there is one.
 if [ -f "$ROOT/.next/diagnostics/route-bundle-stats.json" ]; then

@@ -31,6 +31,7 @@ async function gatherFacts(db: Knex, vesselIds: number[], week: string, previous
   const records = (await unitJoin(db("inspections as x"))
     .leftJoin("user as s", "s.id", "x.submitted_by")
     .whereIn("x.state", ["submitted", "returned"])
+    .whereNull("x.import_id") // past records from a file are approved with their import, not one by one
     .orderBy(["v.name", "u.cylinder_no", "x.id"])
     .select(
       "x.id",
