@@ -58,6 +58,9 @@ export const serverEnvSchema = z.object({
   AUTH_RATE_LIMIT_WINDOW_S: count(60, 1, "a whole number of seconds, at least 1"),
   TRUSTED_PROXY_HEADER: z.string().regex(/^[A-Za-z0-9-]+$/, "must be a header name such as X-Forwarded-For").optional(),
   SESSION_MAX_AGE_S: count(60 * 60 * 12, 300, "a whole number of seconds, at least 300"),
+  // better-auth keeps a signed copy of the session in a cookie for this long, sparing its two session
+  // queries per request; 0 turns it off. Kalibore's own routes still check the session row (lib/auth/session.ts).
+  SESSION_COOKIE_CACHE_S: z.coerce.number({ error: "must be 0–300 seconds" }).int("must be 0–300 seconds").min(0, "must be 0–300 seconds").max(300, "must be 0–300 seconds").default(60),
 })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== "production") return;
