@@ -61,6 +61,8 @@ export const serverEnvSchema = z.object({
   // better-auth keeps a signed copy of the session in a cookie for this long, sparing its two session
   // queries per request; 0 turns it off. Kalibore's own routes still check the session row (lib/auth/session.ts).
   SESSION_COOKIE_CACHE_S: z.coerce.number({ error: "must be 0–300 seconds" }).int("must be 0–300 seconds").min(0, "must be 0–300 seconds").max(300, "must be 0–300 seconds").default(60),
+  /** Bearer token a scheduler sends to POST /api/jobs/*; unset, those routes refuse every call. */
+  JOBS_TOKEN: z.string().min(32, "must be at least 32 characters (openssl rand -base64 48)").regex(/^[\x21-\x7e]+$/, "must be printable characters without spaces").optional(),
 })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== "production") return;

@@ -52,6 +52,15 @@ const smtp = new SMTPServer({
   authOptional: true,
   disabledCommands: ["STARTTLS"],
   logger: false,
+  // Addresses in the reserved .invalid domain (RFC 2606) are refused for good, as a real
+  // server refuses an unknown mailbox (550 5.1.1), so a bounce can be tried locally.
+  onRcptTo(address, _session, callback) {
+    if (/\.invalid$/i.test(address.address)) {
+      const err = Object.assign(new Error(`5.1.1 <${address.address}>: mailbox unavailable`), { responseCode: 550 });
+      return callback(err);
+    }
+    callback();
+  },
   onData(stream, session, callback) {
     const chunks: Buffer[] = [];
     stream.on("data", (c: Buffer) => chunks.push(c));

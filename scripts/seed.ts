@@ -30,6 +30,8 @@ const TABLES = [
   "ring_readings",
   "checklist_entries",
   "spares_stock",
+  "vessel_schedule",
+  "renewal_plans",
   "unit_analysis",
 ];
 

@@ -18,6 +18,8 @@ export DB_MIGRATION_USER=kalibore_owner DB_MIGRATION_PASSWORD=cluster-owner-pw D
 export S3_ENDPOINT="http://127.0.0.1:$S3_FAKE_PORT" S3_BUCKET=kalibore-cluster SMTP_HOST=127.0.0.1 SMTP_PORT="$SMTP_FAKE_PORT"
 export MAIL_FAKE_DIR="$DIR/mail" S3_FAKE_DIR="$DIR/s3"
 export AUTH_RATE_LIMIT_MAX=1000
+JOBS_TOKEN="$(node -e 'process.stdout.write(require("crypto").randomBytes(36).toString("base64url"))')"
+export JOBS_TOKEN
 BETTER_AUTH_SECRET="$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')"
 export BETTER_AUTH_SECRET
 trap 'stop_started' EXIT

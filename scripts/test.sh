@@ -20,6 +20,9 @@ export AUTH_RATE_LIMIT_MAX=5 AUTH_RATE_LIMIT_WINDOW_S=60
 # A fresh random secret per run: production mode refuses a missing or published one.
 BETTER_AUTH_SECRET="$(node -e 'process.stdout.write(require("crypto").randomBytes(48).toString("base64url"))')"
 export BETTER_AUTH_SECRET
+# The scheduler's token for POST /api/jobs/* (the tests call the digest job with it).
+JOBS_TOKEN="$(node -e 'process.stdout.write(require("crypto").randomBytes(36).toString("base64url"))')"
+export JOBS_TOKEN
 RESULTS="$TEST_DATA_DIR/results"
 # For development only: TEST_SUITES="unit integration" runs a part, TEST_FILTER narrows
 # vitest to matching files and Playwright to matching spec files. CI runs everything.

@@ -6,7 +6,9 @@ import { requireUser } from "@/lib/auth/session";
 export default async function SignedInLayout({ children }: { children: React.ReactNode }) {
   const user = await requireUser();
   const nav: NavItem[] = [{ href: "/fleet", label: "Fleet" }];
+  if (can(user.role, "fleet.read")) nav.push({ href: "/outlook", label: "Outlook" });
   if (can(user.role, "admin.users")) nav.push({ href: "/admin", label: "Admin" });
+  nav.push({ href: "/notifications", label: "Notifications" });
   return (
     <AppShell user={user} nav={nav}>
       {children}

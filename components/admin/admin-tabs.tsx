@@ -7,6 +7,7 @@ import { cn } from "@/lib/utils";
 const TABS = [
   { href: "/admin", label: "Overview" },
   { href: "/admin/users", label: "Users" },
+  { href: "/admin/companies", label: "Companies" },
   { href: "/admin/vessels", label: "Vessels" },
   { href: "/admin/engines", label: "Engines" },
   { href: "/admin/profiles", label: "Engine profiles" },

@@ -22,7 +22,7 @@ const shade = (i: number, n: number) => (i === n - 1 ? "#111720" : `rgba(10, 92,
 export function ProfileChart({ series, limitMm }: { series: ProfileSeries[]; limitMm: number }) {
   const [ref, width] = useWidth<HTMLDivElement>();
   return (
-    <div ref={ref} className="h-80 w-full" role="img" aria-label="Liner wear against depth from the liner top, one line per inspection, with the wear limit">
+    <div ref={ref} className="h-80 w-full overflow-hidden" role="img" aria-label="Liner wear against depth from the liner top, one line per inspection, with the wear limit">
       {width > 0 ? <Chart series={series} limitMm={limitMm} width={width} height={320} /> : null}
     </div>
   );

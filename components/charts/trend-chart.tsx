@@ -44,7 +44,7 @@ const LIMIT = "#a3161b";
 export function TrendChart(props: Props) {
   const [ref, width] = useWidth<HTMLDivElement>();
   return (
-    <div ref={ref} className="h-72 w-full sm:h-80" role="img" aria-label={`${props.label} against liner hours, with the regression line, its 95 % prediction band and the limit`}>
+    <div ref={ref} className="h-72 w-full overflow-hidden sm:h-80" role="img" aria-label={`${props.label} against liner hours, with the regression line, its 95 % prediction band and the limit`}>
       {width > 0 ? <Chart {...props} width={width} height={width < 500 ? 288 : 320} /> : null}
     </div>
   );

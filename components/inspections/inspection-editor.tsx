@@ -122,6 +122,7 @@ export function InspectionEditor({ initial, ctx, canSubmit }: { initial: Inspect
           profile={profile}
           rings={form.rings}
           unit={form.entryUnit}
+          correctionFactor={analysis.correction.factor}
           onChange={(position, patch) =>
             setForm((f) => ({ ...f, rings: { ...f.rings, [position]: { ...ringInUnit(f.rings[position] ?? emptyRing, f.entryUnit), ...patch } } }))
           }

@@ -2,9 +2,9 @@
 
 import type { ContextProfile } from "@/lib/inspections/context";
 import { emptyRing, expectedIn, lengthText, parseDecimal, toMm, type RingEntry } from "@/lib/inspections/form";
-import { RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
+import { referredWornGap, RING_STATE_TEXT, ringLive } from "@/lib/inspections/rules";
 import { GAP_MEASURED_IN, GAP_MEASURED_IN_LABELS } from "@/lib/inspections/constants";
-import { normaliseClosedGap, type RingState } from "@/lib/rings/rings";
+import type { RingState } from "@/lib/rings/rings";
 import { checkRingValue, linerDiameterBounds, type Finding } from "@/lib/wear/plausibility";
 import { formatFixed, type LengthUnit } from "@/lib/units/length";
 import { cn } from "@/lib/utils";
@@ -80,11 +80,14 @@ export function RingTable({
   profile,
   rings,
   unit = "mm",
+  correctionFactor = 1,
   readOnly,
   onChange,
 }: {
   profile: ContextProfile;
   rings: Record<string, RingEntry>;
+  /** The gauging's factor to 20 °C, applied to the liner diameter where a gap was read, as the server does. */
+  correctionFactor?: number;
   /** The sheet's entry unit; limits and the comparison are always shown in mm. */
   unit?: LengthUnit;
   readOnly?: boolean;
@@ -107,8 +110,7 @@ export function RingTable({
         const placeMissing = typeof gap === "number" && !r.gapMeasuredIn;
         const unitText = unit === "mm" ? "mm" : "in";
         // A gap read in a worn part of the liner is judged as if in a gauge ring of nominal bore.
-        const referred =
-          typeof gap === "number" && typeof linerD === "number" ? normaliseClosedGap(gap, "liner_worn", linerD - profile.boreMm).gapMm : null;
+        const referred = typeof gap === "number" && typeof linerD === "number" ? referredWornGap(profile.boreMm, gap, linerD, correctionFactor) : null;
         const live = ringLive(spec, referred ?? (typeof gap === "number" ? gap : null), typeof groove === "number" ? groove : null);
         const next = profile.rings[i + 1];
         const focusNext = (e: React.KeyboardEvent<HTMLInputElement>, id: string | null) => {
@@ -219,7 +221,7 @@ export function RingTable({
                     {referred !== null && typeof gap === "number" && typeof linerD === "number" ? (
                       <>
                         Referred to a gauge ring: <span className="num font-semibold text-ink">{referred.toFixed(2)} mm</span> ({gap.toFixed(2)} − π ×{" "}
-                        {(linerD - profile.boreMm).toFixed(2)} mm).
+                        {((gap - referred) / Math.PI).toFixed(2)} mm at 20 °C).
                       </>
                     ) : (
                       "A gap read in a worn part of the liner is larger than in a gauge ring by π × the diameter increase there. Give the diameter to refer it back; without it the gap is judged as read (the safe side)."

@@ -3,7 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { ActionError, actor, ruledAction } from "@/lib/auth/actions";
 import { issueInvitation, reissueInvitation, revokeInvitation } from "@/lib/invitations/mutations";
-import { sendInvitationMail } from "@/lib/invitations/notify";
+import { updateCompanySettings } from "@/lib/company/settings";
+import { companySettingsSchema } from "@/lib/company/schemas";
 import { createEngine, deactivateUser, reactivateUser, saveProfile, saveVessel, setUserAccess } from "./mutations";
 import {
   engineSchema,
@@ -25,8 +26,7 @@ export const inviteUserAction = ruledAction("inviteUserAction", inviteUserSchema
   }
   revalidatePath("/admin/users");
   if (result.kind === "duplicate") return { message: `The invitation to ${input.email} was sent a moment ago.` };
-  const sent = await sendInvitationMail({ ...input, token: result.token, expiresAt: result.expiresAt, inviterName: me.name });
-  if (!sent) throw new ActionError("The invitation is saved but the e-mail could not be sent. Use “Send again” in the users table.", {}, "error");
+  // Queued with the invitation; the notifications page shows it if the mail server refuses it.
   return { message: `Invitation sent to ${input.email}.`, data: { invitationId: result.invitationId } };
 });
 
@@ -38,8 +38,6 @@ export const resendInvitationAction = ruledAction("resendInvitationAction", invi
   if (result.kind === "has_account") throw new ActionError("This address already has an account.");
   revalidatePath("/admin/users");
   if (result.kind === "duplicate") return { message: "Sent a moment ago." };
-  const sent = await sendInvitationMail({ ...result.person, token: result.token, expiresAt: result.expiresAt, inviterName: me.name });
-  if (!sent) throw new ActionError("The new link is saved but the e-mail could not be sent. Try again later.", {}, "error");
   return { message: `A new invitation went to ${result.person.email}.` };
 });
 
@@ -85,4 +83,10 @@ export const saveProfileAction = ruledAction("saveProfileAction", profileSchema,
   const id = await saveProfile(actor(ctx), input);
   revalidatePath("/admin/profiles");
   return { message: input.profileId ? "Profile saved." : "Profile added.", data: { profileId: id } };
+});
+
+export const saveCompanySettingsAction = ruledAction("saveCompanySettingsAction", companySettingsSchema, async (input, ctx) => {
+  const saved = await updateCompanySettings(actor(ctx), input);
+  revalidatePath("/admin/companies");
+  return { message: `Settings of ${saved.companyName} saved.` };
 });

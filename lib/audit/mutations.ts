@@ -24,3 +24,17 @@ export async function writeAudit(entry: AuditEntry, db: Knex | Knex.Transaction 
     detail: entry.detail ? JSON.stringify(entry.detail) : null,
   });
 }
+
+/** Appends many rows to the audit trail in a few statements (an import of past records writes one per record). */
+export async function writeAuditMany(entries: readonly AuditEntry[], db: Knex | Knex.Transaction = defaultDb): Promise<void> {
+  const rows = entries.map((entry) => ({
+    actor_id: entry.actor?.id ?? null,
+    actor_name: entry.actor?.name ?? null,
+    action: entry.action,
+    entity_type: entry.entityType,
+    entity_id: String(entry.entityId),
+    vessel_id: entry.vesselId ?? null,
+    detail: entry.detail ? JSON.stringify(entry.detail) : null,
+  }));
+  for (let i = 0; i < rows.length; i += 2000) await db("audit_log").insert(rows.slice(i, i + 2000));
+}

@@ -66,7 +66,7 @@ export const auth = betterAuth({
       const url = new URL("/reset-password", serverEnv.APP_URL);
       url.searchParams.set("token", token);
       const content = passwordResetEmail({ name: user.name, url: url.href, validMinutes: RESET_TOKEN_TTL_S / 60 });
-      await queueMail({ to: user.email, kind: "password_reset", ...content });
+      await queueMail({ to: user.email, userId: user.id, kind: "password_reset", linkPath: "/reset-password", ...content });
     },
     onPasswordReset: async ({ user }) => {
       await clearSignInFailures(user.email);

@@ -20,6 +20,12 @@ export const PERMISSIONS = {
   "inspection.amend": ["chief_engineer"],
   "photo.upload": ["chief_engineer", "engineer"],
   "hoursLog.write": ["chief_engineer"],
+  /** Renewal planning: plans for units, the ships' port stays and dockings, spares stock. */
+  "outlook.plan": ["superintendent"],
+  "schedule.write": ["superintendent"],
+  "spares.write": ["superintendent", "admin"],
+  /** Import readings from files: a gauge file into a draft, past records into the history (approved as inspections are). */
+  "import.create": ["chief_engineer", "engineer"],
   /** Users, roles, vessel assignments, invitations. */
   "admin.users": ["admin"],
   /** Vessels, companies and main engines (with their cylinder units). */

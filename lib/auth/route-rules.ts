@@ -41,6 +41,26 @@ export const API_ROUTE_RULES = {
   "POST /api/inspections/[inspectionId]/photos/complete": { permission: "photo.upload", vesselScoped: true },
   "GET /api/inspections/[inspectionId]/photos/[photoId]": { permission: "fleet.read", vesselScoped: true },
   "DELETE /api/inspections/[inspectionId]/photos/[photoId]": { permission: "photo.upload", vesselScoped: true },
+  // renewal outlook: rows scoped by the query; plans by the unit's vessel, schedule by the vessel
+  "GET /api/outlook": { permission: "fleet.read", vesselScoped: false },
+  "POST /api/units/[unitId]/plans": { permission: "outlook.plan", vesselScoped: true },
+  "PUT /api/units/[unitId]/plans/[planId]": { permission: "outlook.plan", vesselScoped: true },
+  "GET /api/vessels/[vesselId]/schedule": { permission: "fleet.read", vesselScoped: true },
+  "POST /api/vessels/[vesselId]/schedule": { permission: "schedule.write", vesselScoped: true },
+  "PUT /api/vessels/[vesselId]/schedule/[entryId]": { permission: "schedule.write", vesselScoped: true },
+  "DELETE /api/vessels/[vesselId]/schedule/[entryId]": { permission: "schedule.write", vesselScoped: true },
+  "POST /api/spares": { permission: "spares.write", vesselScoped: false },
+  "PUT /api/spares/[spareId]": { permission: "spares.write", vesselScoped: false },
+  // scheduled jobs: a scheduler has no session; the secret JOBS_TOKEN is its credential
+  "POST /api/jobs/digest": { public: true, why: "authorized by the JOBS_TOKEN bearer token, compared in constant time" },
+  // imports from files (the vessel named in the body or query, or the import's vessel)
+  "POST /api/imports/uploads": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports": { permission: "import.create", vesselScoped: true },
+  "GET /api/imports": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]": { permission: "fleet.read", vesselScoped: true },
+  "GET /api/imports/[importId]/file": { permission: "fleet.read", vesselScoped: true },
+  "POST /api/imports/[importId]/commit": { permission: "import.create", vesselScoped: true },
+  "POST /api/imports/[importId]/approve": { permission: "inspection.approve", vesselScoped: true },
 } as const satisfies Record<string, AccessRule>;
 
 export const ACTION_RULES = {
@@ -57,8 +77,11 @@ export const ACTION_RULES = {
   saveVesselAction: { permission: "admin.fleet", vesselScoped: false },
   createEngineAction: { permission: "admin.fleet", vesselScoped: false },
   saveProfileAction: { permission: "admin.profiles", vesselScoped: false },
+  saveCompanySettingsAction: { permission: "admin.fleet", vesselScoped: false },
   // the engine's running-hours log (the engine's vessel)
   logRunningHoursAction: { permission: "hoursLog.write", vesselScoped: true },
+  // notifications: each person's own e-mail preferences
+  savePreferencesAction: { permission: "account.self", vesselScoped: false },
 } as const satisfies Record<string, AccessRule>;
 
 export type ApiRouteKey = keyof typeof API_ROUTE_RULES;

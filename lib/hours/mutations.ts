@@ -1,6 +1,7 @@
 import "server-only";
 import type { Knex } from "knex";
 import { recomputeUnits } from "@/lib/analysis/recompute";
+import { alertUnitsInsideHorizon } from "@/lib/notifications/alert-mutations";
 import { writeAudit } from "@/lib/audit/mutations";
 import { ActionError } from "@/lib/auth/actions";
 import { db as defaultDb } from "@/lib/db/knex";
@@ -72,6 +73,8 @@ export async function logRunningHours(
       trx,
     );
     await recomputeUnits(trx, { engineIds: [input.engineId] });
+    // A new counter reading changes how fast the engine runs, so dates to the limit move.
+    await alertUnitsInsideHorizon(trx, { engineIds: [input.engineId] });
     return { duplicate: false };
   }, { idempotent: true }); // the same reading sent again is answered as a duplicate
 }

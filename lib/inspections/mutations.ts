@@ -2,10 +2,12 @@ import "server-only";
 import type { Knex } from "knex";
 import { recomputeUnits } from "@/lib/analysis/recompute";
 import { writeAudit } from "@/lib/audit/mutations";
+import { closePlansForInspection } from "@/lib/outlook/mutations";
 import { isRole } from "@/lib/auth/roles";
 import { RecordError } from "@/lib/inspections/errors";
 import { db as defaultDb } from "@/lib/db/knex";
 import { analyseGauging, toGauging } from "@/lib/analysis/input";
+import { alertInspectionApproved, alertInspectionReturned, alertInspectionSubmitted, alertUnitsInsideHorizon } from "@/lib/notifications/alert-mutations";
 import { removeObject } from "@/lib/photos/storage";
 import { approvalRefusal } from "./approval";
 import { toWearProfile, type InspectionContext } from "./context";
@@ -269,7 +271,7 @@ export async function submitInspection(actor: Actor, id: number, revision: numbe
     if (revision !== undefined && revision !== row.revision) {
       await conflict(trx, id, "The draft on the server is newer than yours. Nothing was submitted: compare and choose first.");
     }
-    const { problems } = await completeProblems(trx, row);
+    const { problems, ctx, draft } = await completeProblems(trx, row);
     if (problems.length) refuse(problems);
     const n = await trx("inspections")
       .where({ id })
@@ -277,6 +279,8 @@ export async function submitInspection(actor: Actor, id: number, revision: numbe
       .update({ state: "submitted", submitted_by: actor.id, submitted_at: new Date(), revision: row.revision + 1 });
     if (n !== 1) await conflict(trx, id, "This inspection changed state meanwhile.");
     await writeAudit({ actor, action: "inspection.submit", entityType: "inspection", entityId: id, vesselId: row.vesselId, detail: { from: row.state, version: row.version } }, trx);
+    const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
+    await alertInspectionSubmitted(trx, id, { maxWearMm: analysis.maxWear?.wearMm ?? null, revision: row.revision + 1 });
     return { id, state: "submitted", revision: row.revision + 1, alreadyDone: false };
   });
 }
@@ -292,7 +296,10 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
     const row = await loadForTransition(trx, id);
     if (row.state === "approved") return { id, state: row.state, revision: row.revision, alreadyDone: true };
     if (row.state !== "submitted") await conflict(trx, id, `This inspection is ${row.state}; only a submitted inspection can be approved.`);
-    const parties = await trx("inspections").where({ id }).first("created_by as createdBy", "submitted_by as submittedBy");
+    const parties = await trx("inspections").where({ id }).first("created_by as createdBy", "submitted_by as submittedBy", "import_id as importId");
+    // Past records from a file are approved together, with their import (lib/imports/mutations.ts).
+    if (parties.importId) throw new RecordError(409, `This record came from import ${parties.importId} of past records; approve that import as a whole.`);
+    delete parties.importId;
     const approver = await trx("user").where({ id: actor.id }).first("role");
     const refusal = isRole(approver?.role) ? approvalRefusal({ id: actor.id, role: approver.role }, parties) : "Your role does not approve inspection records.";
     if (refusal) throw new RecordError(403, refusal);
@@ -310,6 +317,7 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       );
     }
     await recomputeUnits(trx, { unitIds: [row.unitId] });
+    await closePlansForInspection(trx, id, actor);
     const analysis = analyseGauging(toWearProfile(ctx.profile), toGauging(id, draft.header, draft.readings), ctx.asFitted);
     await writeAudit(
       {
@@ -328,6 +336,8 @@ export async function approveInspection(actor: Actor, id: number, db: Knex = def
       },
       trx,
     );
+    await alertInspectionApproved(trx, id, actor, { maxWearMm: analysis.maxWear?.wearMm ?? null, maxOvalityMm: analysis.maxOvality?.ovalityMm ?? null });
+    await alertUnitsInsideHorizon(trx, { unitIds: [row.unitId] });
     return { id, state: "approved", revision: row.revision + 1, alreadyDone: false };
   });
 }
@@ -341,6 +351,7 @@ export async function returnInspection(actor: Actor, id: number, comment: string
     const n = await trx("inspections").where({ id, state: "submitted" }).update({ state: "returned", return_comment: comment, revision: row.revision + 1 });
     if (n !== 1) await conflict(trx, id, "This inspection changed state meanwhile.");
     await writeAudit({ actor, action: "inspection.return", entityType: "inspection", entityId: id, vesselId: row.vesselId, detail: { comment, version: row.version } }, trx);
+    await alertInspectionReturned(trx, id, actor, comment, row.revision + 1);
     return { id, state: "returned", revision: row.revision + 1, alreadyDone: false };
   });
 }

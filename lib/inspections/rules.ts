@@ -43,6 +43,18 @@ export function correctionFactor(profile: ContextProfile, gaugeTempC: number | n
   return temperatureCorrection(profile, gaugeTempC, linerTempC).factor;
 }
 
+/**
+ * A closed gap read in a worn part of the liner, referred to a gauge ring of nominal bore: the
+ * liner diameter where it was read is first referred to 20 °C with the inspection's factor
+ * (gapLinerIncrease), as the server's checks do, then π × the increase comes off. Null when
+ * either figure is missing or the diameter is refused as under the nominal bore.
+ */
+export function referredWornGap(boreMm: number, gapMm: number | null, linerDiameterMm: number | null, factor = 1): number | null {
+  if (gapMm === null || linerDiameterMm === null) return null;
+  const inc = gapLinerIncrease(boreMm, linerDiameterMm, factor);
+  return inc.kind === "ok" ? normaliseClosedGap(gapMm, "liner_worn", inc.increaseMm).gapMm : null;
+}
+
 export type ReadingChecks = {
   /** Findings per cell (key "station|axis"): errors cannot be confirmed, warnings can. */
   cells: Map<string, Finding[]>;

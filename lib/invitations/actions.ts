@@ -5,7 +5,6 @@ import { redirect } from "next/navigation";
 import { ActionError, ruledAction } from "@/lib/auth/actions";
 import { auth } from "@/lib/auth/auth";
 import { acceptInvitation, recordReissueRequest } from "./mutations";
-import { sendReissueRequestMail } from "./notify";
 import { getInvitationByToken, hasRecentReissueRequest, listActiveAdminContacts } from "./queries";
 import { acceptInvitationSchema, requestNewInvitationSchema } from "./schemas";
 
@@ -41,9 +40,6 @@ export const requestNewInvitationAction = ruledAction("requestNewInvitationActio
   const done = { message: "Your administrator has been asked to send you a new invitation. It will arrive by e-mail." };
   if (await hasRecentReissueRequest(inv.id)) return done;
   const recipients = inv.inviter ? [inv.inviter] : (await listActiveAdminContacts()).slice(0, 3);
-  for (const to of recipients) {
-    await sendReissueRequestMail({ to, inviteeName: inv.name, inviteeEmail: inv.email, reason: inv.status });
-  }
-  await recordReissueRequest(inv.id, inv.email);
+  await recordReissueRequest({ id: inv.id, name: inv.name, email: inv.email, status: inv.status }, recipients);
   return done;
 });

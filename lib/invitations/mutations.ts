@@ -5,6 +5,7 @@ import type { Knex } from "knex";
 import { writeAudit } from "@/lib/audit/mutations";
 import type { Role } from "@/lib/auth/roles";
 import { db as defaultDb } from "@/lib/db/knex";
+import { queueInvitationMail, queueReissueRequestMail } from "./notify";
 import { invitationStatus, parseVesselIds, type InvitationStatus } from "./queries";
 import { INVITATION_TTL_DAYS } from "./schemas";
 import { hashInvitationToken, newInvitationToken } from "./token";
@@ -37,7 +38,8 @@ function expiry(from = new Date()): Date {
 /**
  * Issues (or re-issues) the one open invitation for an address. An open invitation for
  * the same address is updated in place with a new token, so an old link stops working
- * and a person never holds two. Locks the address's rows so two clicks make one.
+ * and a person never holds two. Locks the address's rows so two clicks make one. The
+ * invitation e-mail is queued in the same transaction (lib/mail/outbox.ts sends it).
  */
 export async function issueInvitation(actor: Actor, o: IssueInvitationOptions, db: Knex = defaultDb): Promise<IssuedInvitation> {
   return inTransaction(db, async (trx) => {
@@ -87,6 +89,7 @@ export async function issueInvitation(actor: Actor, o: IssueInvitationOptions, d
       { actor, action: open ? "invitation.reissue" : "invitation.create", entityType: "invitation", entityId: invitationId, detail: { email: o.email, role: o.role, vesselIds: o.vesselIds } },
       trx,
     );
+    await queueInvitationMail(trx, { token, name: o.name, email: o.email, role: o.role, vesselIds: o.vesselIds, expiresAt, inviterName: actor.name });
     return { kind: "issued" as const, invitationId, token, expiresAt };
   });
 }
@@ -170,7 +173,19 @@ export async function acceptInvitation(token: string, password: string, db: Knex
   });
 }
 
-/** Notes that the invitee asked for a new invitation (also the once-an-hour guard). */
-export async function recordReissueRequest(invitationId: number, email: string, db: Knex = defaultDb): Promise<void> {
-  await writeAudit({ actor: null, action: "invitation.reissue_requested", entityType: "invitation", entityId: invitationId, detail: { email } }, db);
+/**
+ * Notes that the invitee asked for a new invitation (also the once-an-hour guard) and queues
+ * the request to each of `recipients`, in one transaction.
+ */
+export async function recordReissueRequest(
+  invitation: { id: number; name: string; email: string; status: "expired" | "revoked" },
+  recipients: { id: string; name: string; email: string }[],
+  db: Knex = defaultDb,
+): Promise<void> {
+  await inTransaction(db, async (trx) => {
+    for (const to of recipients) {
+      await queueReissueRequestMail(trx, { to, inviteeName: invitation.name, inviteeEmail: invitation.email, reason: invitation.status });
+    }
+    await writeAudit({ actor: null, action: "invitation.reissue_requested", entityType: "invitation", entityId: invitation.id, detail: { email: invitation.email } }, trx);
+  });
 }

@@ -93,9 +93,3 @@ export async function hasRecentReissueRequest(invitationId: number, withinMinute
     .first("id");
   return !!row;
 }
-
-export async function listVesselNames(ids: number[]): Promise<string[]> {
-  if (!ids.length) return [];
-  const rows = await db("vessels").whereIn("id", ids).orderBy("name").select<{ name: string }[]>("name");
-  return rows.map((r) => r.name);
-}

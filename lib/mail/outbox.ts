@@ -9,8 +9,10 @@ import { sendMail } from "./transport";
  * a small sender in the same process, so an answer never waits on the mail server (a
  * password-reset answer took ten times longer for a known address, which told an attacker
  * the address exists). A failed send is retried with a growing pause, its error kept; after
- * MAX_ATTEMPTS it stays `failed` for someone to look at. The sender also runs every
- * SWEEP_MS, which picks up mail queued just before a restart.
+ * MAX_ATTEMPTS it stays `failed` (gave up) for someone to look at. A permanent refusal by the
+ * receiving server (an SMTP 5xx answer: no such mailbox, address rejected) is a bounce: it is
+ * marked `failed` at once and never retried, since sending again cannot help. The sender also
+ * runs every SWEEP_MS, which picks up mail queued just before a restart.
  */
 export const MAX_ATTEMPTS = 8;
 const SWEEP_MS = 60_000;
@@ -24,17 +26,46 @@ export type OutboxMail = MailContent & {
   kind: string;
   /** Mail that must go at most once (an alert, a digest) names itself here; a repeat is ignored. */
   dedupeKey?: string | null;
+  /** The person it is for (when the address belongs to an account): who may see it listed. */
+  userId?: string | null;
+  /** The vessel it is about: people of that vessel may see it listed. */
+  vesselId?: number | null;
+  /** The page it links to (a path on APP_URL), for the notifications page. */
+  linkPath?: string | null;
 };
 
-/** Queues one mail and wakes the sender; false when `dedupeKey` was queued before. */
+/** Transactions whose commit will wake the sender (one hook per transaction). */
+const kickOnCommit = new WeakSet<object>();
+
+/**
+ * Queues one mail and wakes the sender; false when `dedupeKey` was queued before. Inside a
+ * transaction the mail commits or rolls back with the change that caused it, and the sender
+ * is woken once the transaction has committed (never before: the row is not visible yet).
+ */
 export async function queueMail(mail: OutboxMail, db: Knex | Knex.Transaction = defaultDb): Promise<boolean> {
   const [result] = (await db.raw(
-    "INSERT IGNORE INTO mail_outbox (to_address, subject, text_body, html_body, kind, dedupe_key) VALUES (?, ?, ?, ?, ?, ?)",
-    [mail.to, mail.subject, mail.text, mail.html ?? null, mail.kind, mail.dedupeKey ?? null],
+    "INSERT IGNORE INTO mail_outbox (to_address, user_id, vessel_id, subject, text_body, html_body, kind, link_path, dedupe_key) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)",
+    [mail.to, mail.userId ?? null, mail.vesselId ?? null, mail.subject, mail.text, mail.html ?? null, mail.kind, mail.linkPath ?? null, mail.dedupeKey ?? null],
   )) as [{ affectedRows: number }];
-  // Inside a transaction the row is not visible until commit; the sweep sends it then.
-  if (!("isTransaction" in db && db.isTransaction)) kickOutbox();
+  if ("isTransaction" in db && db.isTransaction) {
+    const trx = db as Knex.Transaction;
+    if (!kickOnCommit.has(trx) && trx.executionPromise) {
+      kickOnCommit.add(trx);
+      // A rolled-back transaction queued nothing; the periodic sweep covers anything missed.
+      trx.executionPromise.then(() => kickOutbox(), () => undefined);
+    }
+  } else kickOutbox();
   return result.affectedRows === 1;
+}
+
+/**
+ * Whether a send error is a permanent refusal (SMTP reply 5xx, RFC 5321 §4.2.1: "permanent
+ * negative completion"): a bounce, not worth retrying. Connection errors and 4xx answers are
+ * temporary.
+ */
+export function isPermanentFailure(err: unknown): boolean {
+  const code = (err as { responseCode?: unknown } | null)?.responseCode;
+  return typeof code === "number" && code >= 500 && code < 600;
 }
 
 /** Seconds to wait before attempt n+1 after n failed attempts: 30 s, 1 min, 2 min … 1 h. */
@@ -75,14 +106,16 @@ export async function drainOutbox(opts: { db?: Knex; send?: Send; now?: () => Da
       } catch (err) {
         const attempts = row.attempts + 1;
         const message = err instanceof Error ? err.message : String(err);
+        const failure = isPermanentFailure(err) ? "bounced" : attempts >= MAX_ATTEMPTS ? "gave_up" : null;
         await db("mail_outbox")
           .where({ id: row.id })
           .update({
-            status: attempts >= MAX_ATTEMPTS ? "failed" : "pending",
+            status: failure ? "failed" : "pending",
+            failure,
             last_error: message.slice(0, 2000),
             next_attempt_at: new Date(now().getTime() + retryDelayS(attempts) * 1000),
           });
-        console.error(`mail ${row.id} not sent (attempt ${attempts}):`, message);
+        console.error(`mail ${row.id} not sent (attempt ${attempts}${failure ? `, ${failure}` : ""}):`, message);
       }
     }
   }

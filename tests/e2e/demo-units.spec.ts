@@ -25,6 +25,8 @@ test.describe("[SUPERINTENDENT][DEMO] the demo's designed units read as designed
     await expect(liners.nth(1)).toContainText(/removed .* Scuffing/);
     for (const [width, height] of [[390, 844], [820, 1180], [1440, 900]] as const) {
       await page.setViewportSize({ width, height });
+      // At once, before the charts have heard of the new width, and again once settled.
+      await noSidewaysScroll(page);
       await expect(page.getByRole("heading", { name: "Wear trend" })).toBeVisible();
       await noSidewaysScroll(page);
       await shot(page, `demo-renewed-unit-${width}`);

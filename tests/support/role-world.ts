@@ -48,7 +48,7 @@ export async function buildRoleWorld(db: Knex, tag = "roles"): Promise<RoleWorld
   const hash = await hashPassword(WORLD_PASSWORD);
   const companyId = await upsert(db, "companies", { name: `Harbour Test Shipping (${tag})` }, {});
   // Invented IMO numbers (they pass the check digit); each world has vessels of its own.
-  const imo = ({ roles: ["3104522", "4052635"], appr: ["5104320", "5208762"] } as Record<string, string[]>)[tag] ?? ["2479188", "1587342"];
+  const imo = ({ roles: ["3104522", "4052635"], appr: ["5104320", "5208762"], notify: ["3141594", "2718285"] } as Record<string, string[]>)[tag] ?? ["2479188", "1587342"];
   const vessel1 = await upsert(db, "vessels", { imo_number: imo[0] }, { name: "Test Petrel", company_id: companyId, vessel_type: "Bulk carrier" });
   const vessel2 = await upsert(db, "vessels", { imo_number: imo[1] }, { name: "Test Fulmar", company_id: companyId, vessel_type: "Tanker" });
   const profileId = await upsert(db, "engine_profiles", { name: `Test 600 bore (${tag})` }, {

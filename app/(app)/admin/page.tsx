@@ -4,6 +4,7 @@ import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { countAdminOverview, listRecentAudit } from "@/lib/admin/queries";
 import { requirePermission } from "@/lib/auth/session";
+import { countFailedMail } from "@/lib/notifications/queries";
 
 export const metadata: Metadata = { title: "Administration" };
 
@@ -16,6 +17,7 @@ const ACTION_WORDS: Record<string, string> = {
   "user.deactivate": "deactivated",
   "user.reactivate": "reactivated",
   "user.password_reset": "reset their password",
+  "notifications.preferences": "changed their e-mail choices",
   "vessel.create": "added vessel",
   "vessel.update": "edited vessel",
   "engine.create": "added engine",
@@ -25,12 +27,13 @@ const ACTION_WORDS: Record<string, string> = {
 
 export default async function AdminHomePage() {
   await requirePermission("admin.users");
-  const [counts, audit] = await Promise.all([countAdminOverview(), listRecentAudit(12)]);
+  const [counts, audit, failedMail] = await Promise.all([countAdminOverview(), listRecentAudit(12), countFailedMail()]);
   const tiles = [
     { label: "Active users", value: counts.activeUsers, href: "/admin/users", hint: `${counts.openInvitations} open invitations` },
     { label: "Vessels", value: counts.vessels, href: "/admin/vessels" },
     { label: "Main engines", value: counts.engines, href: "/admin/engines" },
     { label: "Engine profiles", value: counts.profiles, href: "/admin/profiles" },
+    { label: "Undelivered e-mail", value: failedMail, href: "/notifications?state=failed", hint: failedMail ? "bounced or given up: see who" : "none" },
   ];
   return (
     <>

@@ -22,6 +22,7 @@ export const actionCases: Record<string, ActionCase> = {
   acceptInvitationAction: async (w) => ({ token: (await throwawayInvitation(w)).token, password: "A-long-enough-password", confirmPassword: "A-long-enough-password" }),
   requestNewInvitationAction: async (w) => ({ token: (await throwawayInvitation(w, true)).token }),
   saveVesselAction: async (w) => ({ name: unique("Vessel"), imoNumber: freshImo(), companyId: w.companyId, newCompanyName: "", vesselType: "", flag: "", builtYear: "" }),
+  saveCompanySettingsAction: async (w) => ({ companyId: w.companyId, currencyCode: "USD", alertHorizonDays: 183, alertPercent: 20 }),
   createEngineAction: async (w) => ({ vesselId: w.vessel2, profileId: w.profileId, serial: unique("SER"), cylinderCount: 5, commissionedOn: "" }),
   saveProfileAction: async () => ({
     name: unique("Profile"),

@@ -4,6 +4,8 @@ import { notFound } from "next/navigation";
 import { BandBadge, isBandKey } from "@/components/wear/band-badge";
 import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { LogHoursForm } from "@/components/hours/log-hours-form";
+import { TrendMultiples } from "@/components/outlook/trend-multiples";
+import { getEngineTrends } from "@/lib/outlook/engine-trends";
 import { can } from "@/lib/auth/permissions";
 import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
@@ -21,7 +23,7 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
   const engine = await getEngine(user, await requireRecordInScope("engine", engineId));
   if (!engine) notFound();
   const limit = engine.profile.linerWearLimitMm;
-  const log = await listRecentHours(engine.id, 40);
+  const [log, trends] = await Promise.all([listRecentHours(engine.id, 40), getEngineTrends(engine.id, engine.profile.id)]);
   const rate = runningHoursPerDay(log.map((l) => ({ date: l.loggedOn, engineHours: l.engineHours })));
   const today = new Date().toISOString().slice(0, 10);
   return (
@@ -123,6 +125,10 @@ export default async function EnginePage({ params }: { params: Promise<{ engineI
           </tbody>
         </table>
       </div>
+      <section className="mt-8" aria-labelledby="unit-trends">
+        <h2 id="unit-trends" className="mb-3 text-lg font-semibold">Every unit&apos;s wear trend, one scale</h2>
+        <TrendMultiples units={trends} limitMm={limit} />
+      </section>
       <section className="mt-8 grid gap-6 md:grid-cols-2" aria-labelledby="hours-log">
         <div className="min-w-0">
           <h2 id="hours-log" className="mb-1 text-lg font-semibold">Running-hours log</h2>

@@ -9,7 +9,10 @@ import { Card, PageHeader, Stat } from "@/components/ui/card";
 import { ProjectionText } from "@/components/wear/projection-text";
 import { DataTable } from "@/components/wear/data-table";
 import { WearTable } from "@/components/wear/wear-table";
+import { RingHistory, UnitPlans } from "@/components/outlook/unit-outlook";
 import { getUnitAnalysis } from "@/lib/analysis/queries";
+import { getRingHistory } from "@/lib/outlook/ring-history";
+import { getUnitPlans } from "@/lib/outlook/queries";
 import { can } from "@/lib/auth/permissions";
 import { requireRecordInScope } from "@/lib/auth/record-scope";
 import { requirePermission } from "@/lib/auth/session";
@@ -30,6 +33,7 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
   const { unitId } = await params;
   const data = await getUnitAnalysis(user, await requireRecordInScope("unit", unitId));
   if (!data) notFound();
+  const [plans, ringHistory] = await Promise.all([getUnitPlans(data.context.id), getRingHistory(data.context.id)]);
   const { context: ctx, summary, profile } = data;
   const currentLiner = data.liners.find((l) => !l.removedOn) ?? null;
   const latestSeries = data.latest;
@@ -223,6 +227,9 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
           />
         </section>
       ) : null}
+
+      <RingHistory history={ringHistory} specs={profile.rings} />
+      <UnitPlans plans={plans} />
 
       <section className="grid gap-6 lg:grid-cols-3">
         <div className="min-w-0 lg:col-span-2">
