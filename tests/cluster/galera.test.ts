@@ -4,7 +4,8 @@ import path from "node:path";
 import knex, { type Knex } from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { buildRoleWorld, WORLD_PASSWORD, type RoleWorld } from "../support/role-world";
-import { daysAgo, ensureHoursLog, ensureLiner, makeImage } from "../support/inspection-builders";
+import { loadInspectionContext } from "@/lib/inspections/context-queries";
+import { completeDraft, daysAgo, ensureHoursLog, ensureLiner, makeImage } from "../support/inspection-builders";
 
 /*
  * Kalibore on a three-node MariaDB Galera cluster with two app instances (started by
@@ -179,6 +180,16 @@ describe("two app instances on a Galera cluster", () => {
   }, 90_000);
 
   it("the weekly digest, run by a scheduler on both instances at once, queues and sends each person's digest once", async () => {
+    // Something to say: the first draft, completed and submitted through B, waits for the chief's approval.
+    const unit = units[0];
+    const cookie = cookieFor(unit.vesselId);
+    const draft = (await n1("inspections").where({ unit_id: unit.id, state: "draft" }).first("id", "revision"))!;
+    const ctx = (await loadInspectionContext(n1, unit.id, { inspectedOn: daysAgo(0) }))!;
+    const saved = await api(B, cookie, "PUT", `/api/inspections/${draft.id}`, { revision: draft.revision, draft: completeDraft(ctx, { inspectedOn: daysAgo(0), engineHours: 40_000, wearMm: 0.4 }) });
+    expect(saved.status, await saved.clone().text()).toBe(200);
+    const submitted = await api(B, cookie, "POST", `/api/inspections/${draft.id}/submit`, {});
+    expect(submitted.status, await submitted.clone().text()).toBe(200);
+
     const runDigest = async (base: string) => {
       for (let attempt = 1; ; attempt++) {
         const res = await fetch(`${base}/api/jobs/digest`, { method: "POST", headers: { authorization: `Bearer ${env.JOBS_TOKEN}` } });
@@ -189,6 +200,7 @@ describe("two app instances on a Galera cluster", () => {
     const [a, b] = await Promise.all([runDigest(A), runDigest(B)]);
     expect([a.status, b.status]).toEqual([200, 200]);
     const rows = (await n1("mail_outbox").where({ kind: "weekly_digest" }).select("id", "to_address", "subject", "dedupe_key")) as { to_address: string; subject: string; dedupe_key: string }[];
+    expect(rows.length).toBeGreaterThan(0);
     expect(a.body.queued + b.body.queued).toBe(rows.length);
     expect(new Set(rows.map((r) => r.dedupe_key)).size).toBe(rows.length);
     for (let i = 0; i < 120; i++) {

@@ -6,6 +6,7 @@ vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn(), 
 
 import { deactivateUserAction, reactivateUserAction, updateUserAccessAction } from "@/lib/admin/actions";
 import { auth } from "@/lib/auth/auth";
+import { handleAuthRequest } from "@/lib/auth/auth-route";
 import { db } from "@/lib/db/knex";
 import { serverEnv } from "@/lib/env";
 import { GET as getMe } from "@/app/api/me/route";
@@ -42,6 +43,14 @@ describe("session cookie cache", () => {
     const dataCookie = res.headers.getSetCookie().find((c) => c.startsWith("better-auth.session_data="));
     expect(dataCookie).toBeDefined();
     expect(dataCookie).toMatch(new RegExp(`Max-Age=${serverEnv.SESSION_COOKIE_CACHE_S}\\b`));
+  });
+
+  it("the browser's session answer is never stored (a stored copy would outlive a sign-out)", async () => {
+    const cookie = await signInCookie(world.users.chief.email, WORLD_PASSWORD);
+    const res = await handleAuthRequest(new Request(new URL("/api/auth/get-session", serverEnv.APP_URL), { headers: { cookie } }));
+    expect(res.status).toBe(200);
+    expect(res.headers.get("cache-control")).toBe("no-store");
+    expect(JSON.stringify(await res.json())).not.toMatch(/"token"/);
   });
 
   it("a revoked session is refused at once by Kalibore, though better-auth's cached copy still vouches for it", async () => {
