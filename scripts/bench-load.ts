@@ -140,6 +140,6 @@ for (const r of rows) {
 }
 const unit = rows[1];
 console.log(
-  `(d) unit analysis under load: ${(unit.rps / baseline.rps).toFixed(2)}× baseline throughput (target ≥ 0.80×) ${ok(unit.rps / baseline.rps >= 0.8)}, ` +
+  `(e) unit analysis under load: ${(unit.rps / baseline.rps).toFixed(2)}× baseline throughput (target ≥ 0.80×) ${ok(unit.rps / baseline.rps >= 0.8)}, ` +
     `${(unit.p99 / baseline.p99).toFixed(2)}× its p99 (target ≤ 1.50×) ${ok(unit.p99 / baseline.p99 <= 1.5)}, ${unit.errors} errors (target 0) ${ok(unit.errors === 0)}`,
 );

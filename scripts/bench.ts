@@ -11,6 +11,13 @@ import config from "../knexfile";
 import { loadUnitInputs } from "../lib/analysis/load";
 import { loadProfiles } from "../lib/profiles/queries";
 import { recomputeAllUnits } from "../lib/analysis/recompute";
+import { benchImport } from "./bench-import";
+import { loadOutlook, loadOutlookRows } from "../lib/outlook/load";
+import { filterOutlook } from "../lib/outlook/present";
+
+// BENCH_ONLY=import runs only (d), the importer; BENCH_ONLY=outlook only (e), the renewal
+// outlook on analyses already stored.
+const only = process.env.BENCH_ONLY ?? "";
 
 const db = knex({ ...config, pool: { min: 1, max: 4 } });
 
@@ -35,6 +42,13 @@ const counts = {
 };
 console.log(`fleet: ${counts.vessels} vessels, ${counts.units} units, ${counts.inspections} inspections, ${counts.readings} liner readings`);
 
+if (only === "import") {
+  await benchImport(db);
+  await db.destroy();
+  process.exit(0);
+}
+
+if (only !== "outlook") {
 const engineIds = (await db("main_engines").orderBy("id").select("id")).map((r) => r.id as number);
 const BATCH = 40;
 
@@ -90,4 +104,45 @@ console.log(`    full recompute of every unit       ${computeMs.toFixed(0).padSt
 console.log(`    … and storing it in unit_analysis  ${fullMs.toFixed(0).padStart(7)} ms   ratio ${(fullMs / readMs).toFixed(2)}× (no target; for the record)`);
 console.log(`    peak JS heap during recompute      ${(peakHeap / 1048576).toFixed(0).padStart(7)} MB`);
 console.log(`(b) whole-fleet summary (${rows} units)  ${summaryMs.toFixed(1).padStart(7)} ms (median of 7)   target < 100 ms   ${ok(summaryMs < 100)}`);
+}
+
+// (e) the renewal outlook of the whole fleet as a superintendent of every ship asks for it
+// (stored analysis, schedules, open plans, fleet-wide rate percentiles, the t-distribution
+// chances and recommendations), beside the bare read of the same unit_analysis rows; and the
+// JSON answer for the demo fleet's five ships (the first five of this fleet are the demo's).
+if (!(await db("unit_analysis").first("unit_id"))) await recomputeAllUnits(db);
+const today = new Date().toISOString().slice(0, 10);
+const vesselIds = (await db("vessels").orderBy("id").select("id")).map((r) => r.id as number);
+const demoIds = vesselIds.slice(0, 5);
+const outlookRead = () =>
+  db("unit_analysis").select("unit_id", "liner_id", "band", "max_wear_mm", "wear_rate_mm_per_1000h", "liner_hours", "limit_on", "limit_on_earliest", "limit_on_latest", "last_inspected_on", "summary");
+const outlookBuild = () => loadOutlookRows(db, { vessels: vesselIds }, { today });
+const demoAnswer = async () => {
+  const b = await loadOutlook(db, { vessels: demoIds }, { today, horizonMonths: 12 });
+  return JSON.stringify({ rows: filterOutlook(b.rows, {}, today), schedule: b.schedule, shortfall: b.shortfall, demands: b.demands, budget: b.budget }).length;
+};
+await outlookRead();
+await outlookBuild();
+await demoAnswer();
+const oRead: number[] = [];
+const oBuild: number[] = [];
+const oDemo: number[] = [];
+let outlookRows = 0;
+for (let i = 0; i < 7; i++) {
+  oRead.push((await time("outlook read", outlookRead)).ms);
+  const b = await time("outlook", outlookBuild);
+  oBuild.push(b.ms);
+  outlookRows = b.value.length;
+  oDemo.push((await time("demo json", demoAnswer)).ms);
+}
+const oReadMs = median(oRead);
+const oBuildMs = median(oBuild);
+const oDemoMs = median(oDemo);
+const pass = (b: boolean) => (b ? "PASS" : "MISS");
+console.log(`(e) bare read of unit_analysis (${outlookRows} units) ${oReadMs.toFixed(0).padStart(7)} ms (median of 7)`);
+console.log(`    renewal outlook of the whole fleet   ${oBuildMs.toFixed(0).padStart(7)} ms   ratio ${(oBuildMs / oReadMs).toFixed(2)}×   target ≤ 1.50×   ${pass(oBuildMs / oReadMs <= 1.5)}`);
+console.log(`    demo fleet's JSON answer (5 ships)  ${oDemoMs.toFixed(1).padStart(7)} ms (median of 7)   target < 100 ms   ${pass(oDemoMs < 100)}`);
+
+// (d) the importer, last: it adds an engine to the fleet.
+if (only !== "outlook") await benchImport(db);
 await db.destroy();

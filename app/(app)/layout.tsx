@@ -7,6 +7,7 @@ export default async function SignedInLayout({ children }: { children: React.Rea
   const user = await requireUser();
   const nav: NavItem[] = [{ href: "/fleet", label: "Fleet" }];
   if (can(user.role, "fleet.read")) nav.push({ href: "/outlook", label: "Outlook" });
+  if (can(user.role, "import.create") || can(user.role, "inspection.approve")) nav.push({ href: "/imports", label: "Imports" });
   if (can(user.role, "admin.users")) nav.push({ href: "/admin", label: "Admin" });
   nav.push({ href: "/notifications", label: "Notifications" });
   return (

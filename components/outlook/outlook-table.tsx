@@ -124,7 +124,8 @@ export function OutlookTable({ rows, today, canPlan, schedule, stock }: { rows: 
   const right = (meta: unknown) => ((meta as { right?: boolean } | undefined)?.right ? "text-right" : "");
 
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised print:overflow-visible" data-testid="outlook-table">
+    // Positioned, so the screen-reader-only labels inside the scrolled table are clipped with it.
+    <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised print:overflow-visible" data-testid="outlook-table">
       <table className="w-full text-sm">
         <caption className="sr-only">Renewal outlook, one row per cylinder unit; column headers sort the table</caption>
         <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">

@@ -60,11 +60,12 @@ export function DeleteEntryButton({ vesselId, entryId, label }: { vesselId: numb
         type="button"
         variant="danger"
         disabled={busy}
+        aria-label={`Remove the ${label}`}
         onClick={() => {
           if (window.confirm(`Remove the ${label} from the schedule? Plans that named it keep their day.`)) void send("DELETE", `/api/vessels/${vesselId}/schedule/${entryId}`, undefined, "Removed.");
         }}
       >
-        Remove<span className="sr-only"> {label}</span>
+        Remove
       </Button>
       {outcome && !outcome.ok ? <FormMessage ok={false} message={outcome.text} /> : null}
     </>

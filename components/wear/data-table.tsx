@@ -45,7 +45,7 @@ export function DataTable<T>({
 }) {
   const pad = dense ? "px-2 py-2 sm:px-3" : "px-3 py-2";
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised" data-testid={testId}>
+    <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised" data-testid={testId}>
       <table className={cn("w-full text-sm", minWidthClass)}>
         {caption ? <caption className="sr-only">{caption}</caption> : null}
         <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">

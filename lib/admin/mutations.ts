@@ -2,7 +2,7 @@ import "server-only";
 import { recomputeUnits } from "@/lib/analysis/recompute";
 import type { Knex } from "knex";
 import { writeAudit } from "@/lib/audit/mutations";
-import { ActionError } from "@/lib/auth/actions";
+import { ActionError } from "@/lib/auth/action-error";
 import type { Role } from "@/lib/auth/roles";
 import { db as defaultDb } from "@/lib/db/knex";
 import type { ProfileData } from "./schemas";

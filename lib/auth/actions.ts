@@ -2,22 +2,14 @@ import "server-only";
 import { unstable_rethrow } from "next/navigation";
 import type { ZodType } from "zod";
 import { fieldMessages } from "@/lib/validation/issues";
+import { ActionError } from "./action-error";
 import type { ActionCode, ActionState, FieldErrors } from "./action-state";
+
+export { ActionError };
 import { can, type Permission } from "./permissions";
 import { actionRule, type ActionName } from "./route-rules";
 import { canSeeVessel } from "./scope";
 import { getCurrentUser, type CurrentUser } from "./session";
-
-/** Thrown inside an action body to refuse with a message and, optionally, the field at fault. */
-export class ActionError extends Error {
-  constructor(
-    message: string,
-    public fieldErrors: FieldErrors = {},
-    public code: ActionCode = "conflict",
-  ) {
-    super(message);
-  }
-}
 
 export type ActionResult<T> = { message?: string; data?: T } | void;
 

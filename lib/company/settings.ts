@@ -1,6 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
-import { ActionError } from "@/lib/auth/actions";
+import { ActionError } from "@/lib/auth/action-error";
 import { writeAudit } from "@/lib/audit/mutations";
 import { db as defaultDb } from "@/lib/db/knex";
 import type { CompanySettingsValues } from "./schemas";

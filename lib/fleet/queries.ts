@@ -89,6 +89,7 @@ export async function listFleet(user: CurrentUser): Promise<FleetVesselRow[]> {
     .join("main_engines as e", "e.id", "u.engine_id")
     .whereIn("e.vessel_id", ids)
     .where("i.state", "submitted")
+    .whereNull("i.import_id")
     .groupBy("e.vessel_id")
     .select("e.vessel_id as vesselId")
     .count<{ vesselId: number; n: number }[]>({ n: "*" });

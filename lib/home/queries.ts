@@ -42,7 +42,8 @@ function inspectionBase(user: CurrentUser) {
 const toIso = (d: unknown) => (d ? new Date(d as string).toISOString() : null);
 
 function submittedRows(user: CurrentUser, limit: number, narrow: (q: Knex.QueryBuilder) => void): Promise<HomeInspectionRow[]> {
-  const q = inspectionBase(user).leftJoin("user as s", "s.id", "i.submitted_by").where("i.state", "submitted");
+  // Records from an import of past records are approved with their import (the imports page lists those).
+  const q = inspectionBase(user).leftJoin("user as s", "s.id", "i.submitted_by").where("i.state", "submitted").whereNull("i.import_id");
   narrow(q);
   return q
     .orderBy("i.submitted_at", "asc")

@@ -3,7 +3,7 @@ import type { Knex } from "knex";
 import { recomputeUnits } from "@/lib/analysis/recompute";
 import { alertUnitsInsideHorizon } from "@/lib/notifications/alert-mutations";
 import { writeAudit } from "@/lib/audit/mutations";
-import { ActionError } from "@/lib/auth/actions";
+import { ActionError } from "@/lib/auth/action-error";
 import { db as defaultDb } from "@/lib/db/knex";
 import type { LogRunningHoursInput } from "./schemas";
 import { inTransaction } from "@/lib/db/transaction";

@@ -104,7 +104,7 @@ type Pending = {
   date: string;
   lines: number[];
   header: Header;
-  readings: (Omit<PreviewReading, "wearMm" | "warning"> & { typed: string })[];
+  readings: Omit<PreviewReading, "wearMm" | "warning">[];
   rings: PreviewRing[];
 };
 
@@ -128,6 +128,16 @@ export function buildPreview(rows: readonly FileRow[], ctx: ImportContext, setti
 
   const groups = new Map<string, Pending>();
   let rowCount = 0;
+  // A history repeats the same few dates, stations and directions on every row: read each once.
+  const latest = latestRecordDate();
+  const dates = new Map<string, ReturnType<typeof parseFileDate>>();
+  const stationsByText = new Map<string, ReturnType<typeof stationByName>>();
+  const axesByText = new Map<string, string | null>();
+  const memo = <V,>(cache: Map<string, V>, key: string, make: () => V): V => {
+    let v = cache.get(key);
+    if (v === undefined && !cache.has(key)) cache.set(key, (v = make()));
+    return v as V;
+  };
 
   for (const row of rows) {
     if (excluded.has(row.line)) continue;
@@ -174,10 +184,11 @@ export function buildPreview(rows: readonly FileRow[], ctx: ImportContext, setti
 
     // Which day.
     let date: string | null = null;
-    const d = parseFileDate(cell("date"));
+    const dateText = cell("date");
+    const d = memo(dates, dateText, () => parseFileDate(dateText));
     if (d.kind === "invalid") fail(`Date: ${d.message}`);
     else if (d.kind === "date") {
-      if (d.iso < EARLIEST_RECORD_DATE || d.iso > latestRecordDate()) fail(`The date ${d.iso} is ${d.iso > latestRecordDate() ? "in the future" : "before 1950"}: check the year.`);
+      if (d.iso < EARLIEST_RECORD_DATE || d.iso > latest) fail(`The date ${d.iso} is ${d.iso > latest ? "in the future" : "before 1950"}: check the year.`);
       else date = d.iso;
     } else if (destination === "history") fail("No date: a row of past records must say when it was gauged.");
     if (destination === "draft") date = settings.draft?.header.inspectedOn ?? date;
@@ -217,7 +228,7 @@ export function buildPreview(rows: readonly FileRow[], ctx: ImportContext, setti
       const stationText = cell("station").trim();
       let stationKey: string | null = null;
       if (stationText) {
-        const m = stationByName(profile, stationText);
+        const m = memo(stationsByText, stationText, () => stationByName(profile, stationText));
         if (m.kind === "ok") stationKey = m.station.key;
         else fail(m.message);
       } else {
@@ -229,14 +240,14 @@ export function buildPreview(rows: readonly FileRow[], ctx: ImportContext, setti
         } else if (rowOk) fail("No station and no depth: the row cannot be placed on the liner.");
       }
       const dirText = cell("direction");
-      const axisKey = axisByName(profile, dirText);
+      const axisKey = memo(axesByText, dirText, () => axisByName(profile, dirText));
       if (!dirText.trim()) fail("No direction.");
       else if (!axisKey) fail(`Direction "${dirText.trim().slice(0, 20)}" is neither ${profile.axes.map((a) => `${a.key} (${a.label.toLowerCase()})`).join(" nor ")}.`);
       const dia = number("diameter", { required: true });
       if (rowOk && stationKey && axisKey && dia.value !== null) {
         const entered = dia.unit ?? columnUnit.diameter ?? rowUnit;
         const diameterMm = Math.round(toMm(dia.value, entered) * 1000) / 1000;
-        reading = { line, stationKey, axisKey, diameterMm, enteredUnit: entered, typed: `${cell("diameter").trim()}${dia.unit ? "" : ` ${entered}`}` };
+        reading = { line, stationKey, axisKey, diameterMm, enteredUnit: entered };
       }
     }
     if (!rowOk || !unit || !date) continue;
@@ -355,11 +366,16 @@ function finishGroups(
       gaugeTempC: g.header.gaugeTempC ?? draft?.header.gaugeTempC ?? null,
       linerTempC: g.header.linerTempC ?? draft?.header.linerTempC ?? null,
     };
-    const earlier = (byLiner.get(liner.id) ?? []).filter((p) => p.inspectedOn < g.date || (p.inspectedOn === g.date && p.engineHours < engineHours));
-    const previousOfLiner = earlier.at(-1) ?? null;
+    // The liner's gaugings are kept in date order: the ones before this one end at `before`.
+    const ofLiner = byLiner.get(liner.id) ?? [];
+    const isEarlier = (p: PreviousInspection) => p.inspectedOn < g.date || (p.inspectedOn === g.date && p.engineHours < engineHours);
+    let before = ofLiner.length;
+    while (before > 0 && !isEarlier(ofLiner[before - 1])) before--;
+    const previousOfLiner = before > 0 ? ofLiner[before - 1] : null;
+    const firstOfLiner = before > 0 ? ofLiner[0] : null;
     const asFitted: Inspection | null =
-      profile.wearReference === "as_fitted" && earlier[0]
-        ? toGauging(earlier[0].id, { inspectedOn: earlier[0].inspectedOn, engineHours: earlier[0].engineHours, linerHours: earlier[0].linerHours, gaugeTempC: earlier[0].gaugeTempC, linerTempC: earlier[0].linerTempC }, earlier[0].readings)
+      profile.wearReference === "as_fitted" && firstOfLiner
+        ? toGauging(firstOfLiner.id, { inspectedOn: firstOfLiner.inspectedOn, engineHours: firstOfLiner.engineHours, linerHours: firstOfLiner.linerHours, gaugeTempC: firstOfLiner.gaugeTempC, linerTempC: firstOfLiner.linerTempC }, firstOfLiner.readings)
         : null;
     const inspectionCtx: InspectionContext = {
       unit: { id: unit.id, cylinderNo: unit.cylinderNo, engineId: ctx.engine.id, engineSerial: ctx.engine.serial, vesselId: ctx.engine.vesselId, vesselName: ctx.engine.vesselName },
@@ -384,13 +400,11 @@ function finishGroups(
     const warningOf = new Map<string, Finding[]>();
     for (const [key, findings] of checks.cells) {
       const line = lineOf.get(key) ?? first;
-      const r = g.readings.find((x) => x.line === line);
-      const typed = r ? `${r.typed}: ` : "";
       for (const f of findings) {
         if (f.level === "error") {
-          err(line, `${typed}${f.message}`);
+          err(line, f.message);
           groupOk = false;
-        } else if (f.code !== "same_value_everywhere") warn(line, `${typed}${f.message}`);
+        } else if (f.code !== "same_value_everywhere") warn(line, f.message);
       }
       warningOf.set(key, findings);
     }
@@ -431,8 +445,11 @@ function finishGroups(
     // Later gaugings of this liner in the file compare with this one, as the sheet compares with last time.
     let list = byLiner.get(liner.id);
     if (!list) byLiner.set(liner.id, (list = []));
-    list.push({ id: -out.length, linerId: liner.id, inspectedOn: g.date, engineHours, linerHours, gaugeTempC: header.gaugeTempC, linerTempC: header.linerTempC, readings: draftForChecks.readings });
-    list.sort((a, b) => (a.inspectedOn < b.inspectedOn ? -1 : a.inspectedOn > b.inspectedOn ? 1 : a.engineHours - b.engineHours));
+    // Kept in date order: the file's gaugings come in date order, so this is nearly always an append.
+    const entry = { id: -out.length, linerId: liner.id, inspectedOn: g.date, engineHours, linerHours, gaugeTempC: header.gaugeTempC, linerTempC: header.linerTempC, readings: draftForChecks.readings };
+    let at = list.length;
+    while (at > 0 && (list[at - 1].inspectedOn > g.date || (list[at - 1].inspectedOn === g.date && list[at - 1].engineHours > engineHours))) at--;
+    list.splice(at, 0, entry);
   }
   return out;
 }

@@ -6,6 +6,7 @@ import { digestEmail } from "@/lib/mail/templates";
 import { appLink, PREFERENCES_PATH } from "./alert-mutations";
 import { composeDigest, type DigestFacts, type DigestPerson, type DigestRecord } from "./digest";
 import { unitsInsideHorizon } from "./horizon-queries";
+import { loadFleetOutlook, outlookDigestLines } from "./outlook-alerts";
 import { subscribedPeople } from "./recipient-queries";
 import { isoWeek } from "./topics";
 
@@ -30,6 +31,7 @@ async function gatherFacts(db: Knex, vesselIds: number[], week: string, previous
   const records = (await unitJoin(db("inspections as x"))
     .leftJoin("user as s", "s.id", "x.submitted_by")
     .whereIn("x.state", ["submitted", "returned"])
+    .whereNull("x.import_id") // past records from a file are approved with their import, not one by one
     .orderBy(["v.name", "u.cylinder_no", "x.id"])
     .select(
       "x.id",
@@ -51,7 +53,8 @@ async function gatherFacts(db: Knex, vesselIds: number[], week: string, previous
         .select("x.unit_id as unitId", "e.vessel_id as vesselId", "v.name as vesselName", "u.cylinder_no as cylinderNo", "p.band as from", "x.band as to")
     : [];
   const limits = await unitsInsideHorizon(db, { vesselIds }, now);
-  return { records, bandMoves, limits, renewals: [], shortfalls: [] };
+  const { renewals, shortfalls } = outlookDigestLines(await loadFleetOutlook(db, now.toISOString().slice(0, 10), { vessels: vesselIds }));
+  return { records, bandMoves, limits, renewals, shortfalls };
 }
 
 /** Runs the week's digest once; safe to repeat and to run on two instances at once. */

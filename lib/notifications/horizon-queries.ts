@@ -1,6 +1,7 @@
 import "server-only";
 import type { Knex } from "knex";
 import { listCompanySettings } from "@/lib/company/settings";
+import { addDays } from "@/lib/wear/calendar";
 
 /*
  * Units whose projected limit comes inside their company's alert horizon: the early end of the
@@ -25,7 +26,7 @@ export type UnitInsideHorizon = {
   lastInspectedOn: string | null;
 };
 
-const addDays = (d: Date, days: number) => new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth(), d.getUTCDate() + days)).toISOString().slice(0, 10);
+const dayAfter = (now: Date, days: number) => addDays(now.toISOString().slice(0, 10), days) ?? "9999-12-31";
 
 export async function unitsInsideHorizon(
   conn: Knex | Knex.Transaction,
@@ -49,7 +50,7 @@ export async function unitsInsideHorizon(
   // One bound per company: the early date must be on or before today + that company's horizon.
   q.where((w) => {
     for (const s of settings) {
-      w.orWhere((c) => c.where("v.company_id", s.companyId).whereRaw("COALESCE(a.limit_on_earliest, a.limit_on) <= ?", [addDays(now, s.alertHorizonDays)]));
+      w.orWhere((c) => c.where("v.company_id", s.companyId).whereRaw("COALESCE(a.limit_on_earliest, a.limit_on) <= ?", [dayAfter(now, s.alertHorizonDays)]));
     }
   });
   const horizon = new Map(settings.map((s) => [s.companyId, s.alertHorizonDays]));

@@ -77,27 +77,21 @@ export async function loadPlans(db: Knex, unitIds: readonly number[] | null, tod
   return rows.map((r) => ({ ...r, missed: (OPEN_PLAN_STATES as string[]).includes(r.state) && r.plannedOn < today }));
 }
 
-type UnitRow = {
-  unitId: number;
-  companyId: number;
-  vesselId: number;
-  vesselName: string;
-  engineId: number;
-  engineSerial: string;
-  profileId: number;
-  profileName: string;
-  cylinderNo: number;
-  linerSerial: string | null;
-  limitMm: number;
+type UnitRow = Pick<OutlookRow, "unitId" | "companyId" | "vesselId" | "vesselName" | "engineId" | "engineSerial" | "profileId" | "profileName" | "cylinderNo" | "linerSerial" | "limitMm" | "limitOn" | "limitOnEarliest" | "limitOnLatest"> & {
   intervalHours: number;
   band: BandKey | null;
   wearRate: number | null;
-  limitOn: string | null;
-  limitOnEarliest: string | null;
-  limitOnLatest: string | null;
-  summary: unknown;
-  fit: unknown;
+  outlook: unknown;
 };
+
+/** What unit_analysis.outlook_json holds (migration 20261203200100): the summary's figures the outlook needs, and the fit. */
+type OutlookFigures = Pick<UnitSummary, "nextOverhaulEngineHours" | "linerHours" | "lastInspectedOn" | "lastEngineHours" | "maxWearMm" | "runningRate"> & {
+  ringsRenew: boolean | boolean[] | null;
+  ringsOverLimit: boolean | boolean[] | null;
+  fit: PredictionFit | null;
+};
+
+const anyTrue = (v: boolean | boolean[] | null | undefined) => (Array.isArray(v) ? v.includes(true) : v === true);
 
 /** Wear rates of every analysed unit of these profiles across the whole fleet, sorted per profile. */
 export async function fleetRates(db: Knex, profileIds: number[]): Promise<Map<number, number[]>> {
@@ -154,8 +148,7 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
         "a.limit_on as limitOn",
         "a.limit_on_earliest as limitOnEarliest",
         "a.limit_on_latest as limitOnLatest",
-        "a.summary",
-        "a.fit_json as fit",
+        "a.outlook_json as outlook",
       ),
     scope,
     "v.id",
@@ -181,8 +174,8 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
   }
 
   return units.map((u): OutlookRow => {
-    const summary = u.summary ? parsed<UnitSummary>(u.summary) : null;
-    const fit = u.fit ? parsed<PredictionFit | null>(u.fit) : null;
+    const summary = u.outlook ? parsed<OutlookFigures>(u.outlook) : null;
+    const fit = summary?.fit ?? null;
     const limitMm = Number(u.limitMm);
     const reference =
       summary && summary.lastInspectedOn && summary.lastEngineHours !== null && summary.linerHours !== null
@@ -191,7 +184,7 @@ export async function loadOutlookRows(db: Knex, scope: VesselScope, options: Out
     const rate = summary?.runningRate ?? { kind: "unknown" as const, reason: "too_few_entries" as const };
     const overhauls = nextOverhauls({ nextOverhaulEngineHours: summary?.nextOverhaulEngineHours ?? null, intervalHours: num(u.intervalHours), reference, rate });
     const band: BandKey = u.band ?? "unknown";
-    const ringsDue = !!summary?.rings.some((r) => r.renew || r.overLimit);
+    const ringsDue = anyTrue(summary?.ringsRenew) || anyTrue(summary?.ringsOverLimit);
     const opportunities = scheduleOf.get(u.vesselId) ?? [];
     const overhaulOpps: Opportunity[] = overhauls
       .filter((o): o is NextOverhaul & { date: string } => o.date !== null && o.date >= today)

@@ -1,6 +1,6 @@
 import { quantileRankSorted } from "simple-statistics";
 import { predict, type PredictionFit } from "@/lib/stats/regression";
-import { studentTCdf } from "@/lib/stats/t-quantile";
+import { studentTCdf, tCritical } from "@/lib/stats/t-quantile";
 import { addDays, parseIsoDate, type RunningRate } from "@/lib/wear/calendar";
 
 /*
@@ -102,6 +102,24 @@ export function exceedProbability(fit: PredictionFit | null, limitMm: number, li
   return { kind: "probability", p: Math.min(1, Math.max(0, 1 - cdf)), linerHours, df: fit.df };
 }
 
+/**
+ * Whether the chance of being over the limit at `linerHours` reaches `risk`, without working out
+ * the chance: P(over) ≥ risk exactly when (limit − ŷ)/se ≤ t(1 − risk, df), and that quantile is
+ * cached per df (tCritical at confidence 1 − 2·risk), so a recommendation that weighs a dozen
+ * opportunities per unit costs no incomplete-beta evaluations. Null where exceedProbability says
+ * "not enough data".
+ */
+export function reachesRisk(fit: PredictionFit | null, limitMm: number, linerHours: number | null, risk: number): boolean | null {
+  if (!fit || !(fit.df >= MIN_DF_FOR_PROBABILITY) || linerHours === null || !Number.isFinite(linerHours) || !Number.isFinite(limitMm)) return null;
+  const band = predict(fit, linerHours);
+  if (!band || !(band.t > 0)) return null;
+  const se = band.halfWidth / band.t;
+  if (!(se > 0)) return band.yHat >= limitMm ? true : risk <= 0;
+  const q = tCritical(1 - 2 * risk, fit.df);
+  if (q === null) return null;
+  return (limitMm - band.yHat) / se <= q;
+}
+
 /** A chance as a percentage in words for tables and the CSV: "12 %", "< 1 %", "> 99 %". */
 export function probabilityText(e: ExceedProbability): string {
   if (e.kind !== "probability") return "not enough data";
@@ -150,15 +168,14 @@ export function recommend(input: {
   const risk = input.risk ?? DEFAULT_RISK;
   const pct = `${Math.round(risk * 100)} %`;
   if (input.mustRenew) return { kind: "renew_now", text: "Renew now: the liner or a ring is at or past its limit.", opportunity: null };
-  const chanceOn = (date: string) => exceedProbability(input.fit, input.limitMm, linerHoursOn(input.reference, input.rate, date));
-  const now = chanceOn(input.today);
-  if (now.kind !== "probability") {
+  const riskyOn = (date: string) => reachesRisk(input.fit, input.limitMm, linerHoursOn(input.reference, input.rate, date), risk);
+  const now = riskyOn(input.today);
+  if (now === null) {
     return { kind: "run_on", text: "Run on: not enough data for a projection yet; gauge again at the next overhaul.", opportunity: null };
   }
-  if (now.p >= risk) return { kind: "renew_now", text: `Renew now: the chance it is already past the limit is ${pct} or more.`, opportunity: null };
+  if (now) return { kind: "renew_now", text: `Renew now: the chance it is already past the limit is ${pct} or more.`, opportunity: null };
   const last = input.overhauls.at(-1);
-  const atLast = last ? exceedProbability(input.fit, input.limitMm, last.linerHours) : null;
-  if (last && atLast?.kind === "probability" && atLast.p < risk) {
+  if (last && reachesRisk(input.fit, input.limitMm, last.linerHours, risk) === false) {
     return { kind: "run_on", text: `Run on: under ${pct} chance of passing the limit by overhaul ${last.ordinal}${last.date ? ` (about ${last.date})` : ""}.`, opportunity: null };
   }
   const candidates: Opportunity[] = [
@@ -169,8 +186,7 @@ export function recommend(input: {
   ].sort((a, b) => a.date.localeCompare(b.date));
   let chosen: Opportunity | null = null;
   for (const c of candidates) {
-    const e = chanceOn(c.date);
-    if (e.kind !== "probability" || e.p >= risk) break;
+    if (riskyOn(c.date) !== false) break;
     chosen = c;
   }
   if (!chosen) return { kind: "renew_now", text: `Renew now: no planned opportunity comes before the chance of passing the limit reaches ${pct}.`, opportunity: null };

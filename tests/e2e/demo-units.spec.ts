@@ -6,7 +6,7 @@ async function openUnit(page: Page, vessel: string, cylinder: number) {
   await page.goto("/fleet");
   await page.locator("main h2 a", { hasText: vessel }).click();
   await page.getByRole("link", { name: "Units and wear →" }).first().click();
-  await page.getByRole("link", { name: new RegExp(`^Cyl\\. ${cylinder}$`) }).click();
+  await page.getByRole("link", { name: new RegExp(`^Cyl\\. ${cylinder}$`) }).first().click();
   await expect(page.getByRole("heading", { name: `Cylinder ${cylinder}` })).toBeVisible();
 }
 

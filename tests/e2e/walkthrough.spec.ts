@@ -26,7 +26,7 @@ test.describe("[SUPERINTENDENT][FLEET] fleet → vessel → engine → unit", ()
     await expect(page.locator("tbody").getByText(/Steady|Watch|Over limit|Renew before next overhaul|Too few readings/).first()).toBeVisible();
     await shot(page, `engine-${test.info().project.name}`);
 
-    await page.getByRole("link", { name: /^Cyl\. 1$/ }).click();
+    await page.getByRole("link", { name: /^Cyl\. 1$/ }).first().click();
     await expect(page.getByRole("heading", { name: "Cylinder 1" })).toBeVisible();
     await expect(page.getByRole("heading", { name: "Wear trend" })).toBeVisible();
     await expect(page.getByRole("heading", { name: /Latest gauging/ })).toBeVisible();
@@ -41,7 +41,7 @@ test.describe("[SUPERINTENDENT][FLEET] fleet → vessel → engine → unit", ()
     await expect(vessels).toHaveCount(1);
     await vessels.first().click();
     await page.getByRole("link", { name: "Units and wear →" }).first().click();
-    await page.getByRole("link", { name: /^Cyl\. 1$/ }).click();
+    await page.getByRole("link", { name: /^Cyl\. 1$/ }).first().click();
     const unitId = page.url().split("/").pop();
     const own = await page.request.get(`/api/units/${unitId}/analysis`);
     expect(own.status()).toBe(200);

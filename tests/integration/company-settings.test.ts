@@ -33,7 +33,10 @@ describe("company settings", () => {
     asCaller(adminCookie);
     const r = await saveCompanySettingsAction(undefined, { companyId: world.companyId, currencyCode: "nok", alertHorizonDays: "120", alertPercent: "35" });
     expect(r.ok).toBe(true);
-    expect(await getVesselCompanySettings(world.vessel1)).toMatchObject({ currencyCode: "NOK", alertHorizonDays: 120, alertProbability: 0.35 });
+    expect(await getCompanySettings(world.companyId)).toMatchObject({ currencyCode: "NOK", alertHorizonDays: 120, alertProbability: 0.35 });
+    // A vessel's settings are its managing company's (worlds built under other tags may share vessels).
+    const { company_id } = await db("vessels").where({ id: world.vessel1 }).first("company_id");
+    expect((await getVesselCompanySettings(world.vessel1))!.companyId).toBe(company_id);
     const audit = await db("audit_log").where({ action: "company.settings", entity_id: String(world.companyId) }).orderBy("id", "desc").first("detail");
     expect(JSON.stringify(audit.detail)).toContain("0.35");
   });

@@ -28,6 +28,7 @@ import { drainOutbox, MAX_ATTEMPTS, outboxIdle, queueMail } from "@/lib/mail/out
 import { mailer } from "@/lib/mail/transport";
 import { savePreferencesAction } from "@/lib/notifications/actions";
 import { alertUnitsInsideHorizon } from "@/lib/notifications/alert-mutations";
+import { alertFromOutlook } from "@/lib/notifications/outlook-alerts";
 import { runWeeklyDigest } from "@/lib/notifications/digest-mutations";
 import { savePreferences } from "@/lib/notifications/mutations";
 import { listFailedAddresses, listNotifications } from "@/lib/notifications/queries";
@@ -157,7 +158,7 @@ describe("alerts", () => {
     const unitId = units.shift()!;
     const linerId = await db("liners").insert({ unit_id: unitId, serial: `HZ-${Date.now().toString(36)}`, installed_on: "2024-01-10", installed_engine_hours: 10_000 }).then(([id]) => id);
     const inDays = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
-    const row = { unit_id: unitId, liner_id: linerId, band: "renew_before_next", max_wear_mm: 2.9, limit_on: inDays(200), limit_on_earliest: inDays(400), limit_on_latest: inDays(500), summary: "{}", last_inspected_on: inDays(-5) };
+    const row = { unit_id: unitId, liner_id: linerId, band: "renew_before_next", max_wear_mm: 2.9, limit_on: inDays(200), limit_on_earliest: inDays(400), limit_on_latest: inDays(500), summary: JSON.stringify({ rings: [] }), last_inspected_on: inDays(-5) };
     await db("unit_analysis").insert(row).onConflict("unit_id").merge();
     // Early bound 400 days away: outside the default 183-day horizon, no alert.
     expect(await alertUnitsInsideHorizon(db, { unitIds: [unitId] })).toBe(0);
@@ -186,6 +187,52 @@ describe("alerts", () => {
     await submitInspection(actor(chief), own.id, own.revision);
     expect(await queuedFor(`inspection_submitted:inspection:${own.id}:`)).toEqual([]);
     await savePreferences(supt, ["inspection_submitted", "unit_over_limit", "unit_horizon", "unit_probability", "plan_missed", "spare_order_by", "weekly_digest"]);
+  });
+});
+
+describe("alerts from the renewal outlook", () => {
+  const inDays = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
+  const scope = () => ({ vessels: [world.vessel1, world.vessel2] });
+
+  it("a likely overrun by the next overhaul, a missed renewal and a spare to order each alert once, to the right people", async () => {
+    const { engineer, chief, supt, chief2 } = world.users;
+    // Unit A: an approved record, then a wear trend steep enough to pass the 3.6 mm limit long
+    // before the next overhaul (16,000 h on): invented figures, the outlook's own arithmetic.
+    const a = await draft(engineer);
+    await submitInspection(actor(engineer), a.id, a.revision);
+    await approveInspection(actor(chief), a.id);
+    const fit = { model: "intercept", n: 6, df: 4, intercept: 0, slope: 0.0002, mse: 0.0004, xMean: 20_000, sxx: 1e9, sumX2: 3.4e9 };
+    await db.raw("UPDATE unit_analysis SET detail = JSON_SET(COALESCE(detail, '{}'), '$.fit', JSON_EXTRACT(?, '$')) WHERE unit_id = ?", [JSON.stringify(fit), a.unitId]);
+    // Unit B: a liner renewal pencilled in for yesterday, not done. Unit C: one in three weeks,
+    // and no spare liner anywhere with a 30-day lead time, so the order is already late.
+    const [b, c] = [units.shift()!, units.shift()!];
+    const [planB] = await db("renewal_plans").insert({ unit_id: b, part: "liner", planned_on: inDays(-1), port_or_yard: "Port Blanc", status: "pencilled", created_by: supt.id });
+    await db("renewal_plans").insert({ unit_id: c, part: "liner", planned_on: inDays(21), status: "confirmed", created_by: supt.id });
+    await db("spares_stock").insert({ company_id: world.companyId, profile_id: world.profileId, part: "liner", vessel_id: null, on_hand: 0, on_order: 0, lead_time_days: 30 });
+
+    const first = await alertFromOutlook(db, new Date(), scope());
+    expect(first).toBeGreaterThanOrEqual(4);
+    expect(await alertFromOutlook(db, new Date(), scope())).toBe(0);
+
+    const chance = await queuedFor(`unit_probability:unit:${a.unitId}:`);
+    expect(chance.map((r) => r.to_address).sort()).toEqual([chief.email, supt.email].sort());
+    const missed = await queuedFor(`plan_missed:plan:${planB}:`);
+    expect(missed.map((r) => r.to_address)).toEqual([supt.email]);
+    const spare = await queuedFor(`spare_order_by:spare:${world.profileId}:liner:`);
+    expect(spare.map((r) => r.to_address)).toEqual([supt.email]);
+    expect(spare[0].link_path).toBe("/outlook/spares");
+    for (const rows of [chance, missed, spare]) expect(rows.map((r) => r.to_address)).not.toContain(chief2.email);
+
+    const [mail] = await mailsTo(chief.email, "Likely over limit by next overhaul");
+    expect(mail.text).toMatch(/has a (9\d|100) % chance of passing its limit by the next overhaul/);
+    expect(mail.text).toContain("The company's threshold is 20 %.");
+    expect(mail.text).toContain(`${APP}/units/${a.unitId}`);
+    const [planMail] = await mailsTo(supt.email, "Renewal not done");
+    expect(planMail.text).toContain(`planned for ${new Date(Date.now() - 86_400_000).getUTCDate()}`);
+    expect(planMail.text).toContain("at Port Blanc");
+    const [spareMail] = await mailsTo(supt.email, "Order ");
+    expect(spareMail.text).toContain("that day has already passed");
+    expect(spareMail.text).toContain(`${APP}/outlook/spares`);
   });
 });
 
@@ -315,11 +362,11 @@ describe("the weekly digest", () => {
     expect(mail.text).toContain("Records waiting for your approval:");
     expect(mail.text).toContain("Test Petrel, cylinder");
     expect(mail.text).toContain(`${APP}/notifications/preferences`);
-    await savePreferences(chief2, ["inspection_submitted", "inspection_returned", "unit_over_limit", "unit_horizon", "unit_probability", "weekly_digest"]);
   });
 
   it("npm run digest runs the same job from the command line, and a second run in the week sends nothing new", async () => {
     const { stdout } = await promisify(execFile)("npm", ["run", "--silent", "digest"], { cwd: path.resolve(import.meta.dirname, "../.."), env: process.env, timeout: 60_000 });
     expect(stdout).toMatch(new RegExp(`^weekly digest ${isoWeek(new Date())}: 0 queued for \\d+ people, \\d+ already queued this week`, "m"));
+    await savePreferences(world.users.chief2, ["inspection_submitted", "inspection_returned", "unit_over_limit", "unit_horizon", "unit_probability", "weekly_digest"]);
   }, 90_000);
 });

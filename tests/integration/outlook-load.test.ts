@@ -55,6 +55,20 @@ describe("outlook rows from unit_analysis", () => {
     expect(JSON.parse(row.fit_json)).toEqual(JSON.parse(row.detail).fit);
   });
 
+  it("keeps the summary's figures the outlook reads, and the fit, in one small generated object", async () => {
+    const rows = await db("unit_analysis").select("summary", "detail", "outlook_json");
+    for (const r of rows) {
+      const summary = typeof r.summary === "string" ? JSON.parse(r.summary) : r.summary;
+      const o = JSON.parse(r.outlook_json);
+      expect(o.nextOverhaulEngineHours).toEqual(summary.nextOverhaulEngineHours);
+      expect(o.lastInspectedOn).toEqual(summary.lastInspectedOn);
+      expect(o.runningRate).toEqual(summary.runningRate);
+      expect(o.fit).toEqual(r.detail ? (JSON.parse(r.detail).fit ?? null) : null);
+      const renew = summary.rings.map((x: { renew: boolean }) => x.renew);
+      expect([o.ringsRenew].flat().filter((x: unknown) => x !== null)).toEqual(renew);
+    }
+  });
+
   it("gives every unit of the scope one row, with chances where there is a trend and words where not", async () => {
     const rows = await loadOutlookRows(db, { vessels: "all" }, { today: TODAY });
     const units = Number((await db("cylinder_units").count({ n: "*" }))[0].n);

@@ -57,20 +57,20 @@ describe("password-reset mail", () => {
       expect([a.status, b.status]).toEqual([200, 200]);
       expect(a.body).toBe(b.body);
       // The known address's mail is queued (and the sender is stuck on the mail server, not the answer).
-      await vi.waitFor(async () => expect(await db("mail_outbox").where({ to_address: known }).first("status")).toBeDefined(), { timeout: 5000 });
+      await vi.waitFor(async () => expect(await db("mail_outbox").where({ to_address: known, kind: "password_reset" }).first("status")).toBeDefined(), { timeout: 5000 });
     } finally {
       send.mockRestore();
       release();
       await outboxIdle();
     }
-    const row = await db("mail_outbox").where({ to_address: known }).first();
+    const row = await db("mail_outbox").where({ to_address: known, kind: "password_reset" }).first();
     expect(row).toMatchObject({ kind: "password_reset", status: "pending", attempts: 1, last_error: "mail server did not answer" });
   });
 
   it("delivers the queued mail to the mail server when it answers again, with a working link", async () => {
     // The retry is due 30 s after the failure; the sender is asked as if that time had come.
     await drainOutbox({ now: () => new Date(Date.now() + 60_000) });
-    const row = await db("mail_outbox").where({ to_address: known }).first();
+    const row = await db("mail_outbox").where({ to_address: known, kind: "password_reset" }).first();
     expect(row).toMatchObject({ status: "sent", attempts: 2, last_error: null });
     const raw = await mailTo(known);
     expect(raw, `no mail to ${known} in ${MAIL_DIR}`).not.toBeNull();

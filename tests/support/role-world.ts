@@ -1,4 +1,4 @@
-import { randomUUID } from "node:crypto";
+import { randomUUID, createHash } from "node:crypto";
 import { hashPassword } from "better-auth/crypto";
 import type { Knex } from "knex";
 import type { Role } from "@/lib/auth/roles";
@@ -44,11 +44,26 @@ async function upsert(db: Knex, table: string, where: Record<string, unknown>, r
   return id;
 }
 
+/**
+ * An invented IMO number of its own for each world tag, so two test files never share a vessel
+ * (and its units, outbox or plans). The seventh digit is the IMO check digit: the first six
+ * weighted 7, 6, 5, 4, 3, 2, summed, modulo 10 (IMO Resolution A.1117(30)).
+ */
+function worldImo(seed: string): string {
+  const n = 100000 + (Number.parseInt(createHash("sha256").update(seed).digest("hex").slice(0, 8), 16) % 900000);
+  const d = String(n).split("").map(Number);
+  const check = d.reduce((sum, digit, i) => sum + digit * (7 - i), 0) % 10;
+  return `${n}${check}`;
+}
+
 export async function buildRoleWorld(db: Knex, tag = "roles"): Promise<RoleWorld> {
   const hash = await hashPassword(WORLD_PASSWORD);
   const companyId = await upsert(db, "companies", { name: `Harbour Test Shipping (${tag})` }, {});
   // Invented IMO numbers (they pass the check digit); each world has vessels of its own.
-  const imo = ({ roles: ["3104522", "4052635"], appr: ["5104320", "5208762"], notify: ["3141594", "2718285"] } as Record<string, string[]>)[tag] ?? ["2479188", "1587342"];
+  const imo = ({ roles: ["3104522", "4052635"], appr: ["5104320", "5208762"], notify: ["3141594", "2718285"] } as Record<string, string[]>)[tag] ?? [
+    worldImo(`${tag}:1`),
+    worldImo(`${tag}:2`),
+  ];
   const vessel1 = await upsert(db, "vessels", { imo_number: imo[0] }, { name: "Test Petrel", company_id: companyId, vessel_type: "Bulk carrier" });
   const vessel2 = await upsert(db, "vessels", { imo_number: imo[1] }, { name: "Test Fulmar", company_id: companyId, vessel_type: "Tanker" });
   const profileId = await upsert(db, "engine_profiles", { name: `Test 600 bore (${tag})` }, {

@@ -7,6 +7,7 @@ import { buttonClass } from "@/components/ui/button";
 import { Card, PageHeader } from "@/components/ui/card";
 import { Label, Select } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
+import { ShortfallTable } from "@/components/outlook/shortfall-table";
 import { DataTable } from "@/components/wear/data-table";
 import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
@@ -113,25 +114,7 @@ export default async function OutlookPage({ searchParams }: { searchParams: Prom
       <section className="mt-8 grid gap-6 lg:grid-cols-2 [&>*]:min-w-0">
         <div>
           <h2 className="mb-2 text-lg font-semibold">Spares short within {horizonMonths} months</h2>
-          <DataTable
-            testId="shortfall-table"
-            caption="Spares needed, available and short, with order-by dates"
-            dense
-            rows={bundle.shortfall}
-            rowKey={(l) => `${l.profileId}-${l.part}`}
-            columns={[
-              { key: "part", header: "Part", rowHeader: true, cell: (l) => <>{PART_LABELS[l.part]}<span className="block text-xs text-ink-faint">{profileName.get(l.profileId)}</span></> },
-              { key: "needed", header: "Needed", align: "right", numeric: true, cell: (l) => l.needed },
-              { key: "available", header: "Stock", align: "right", numeric: true, hideBelow: "sm", cell: (l) => l.available },
-              { key: "short", header: "Short", align: "right", numeric: true, cell: (l) => <span data-testid="short-count" className={l.short ? "font-semibold text-limit" : ""}>{l.short}</span> },
-              {
-                key: "orderBy",
-                header: "Order by",
-                numeric: true,
-                cell: (l) => (l.orderBy ? <span className={l.late ? "font-semibold text-limit" : ""}>{day(l.orderBy)}{l.late ? " — late" : ""}<span className="block text-xs font-normal text-ink-faint">needed {day(l.firstShortOn)}, {l.leadTimeDays} days' lead time</span></span> : "–"),
-              },
-            ]}
-          />
+          <ShortfallTable lines={bundle.shortfall} profileName={profileName} testId="shortfall-table" />
           <p className="mt-1 text-xs text-ink-faint">Renewals planned or recommended within the horizon take a spare from their ship, then the company store, then an order due by the day; the order-by day is the first day short less the lead time.</p>
         </div>
         <div>

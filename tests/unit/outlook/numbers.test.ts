@@ -8,6 +8,7 @@ import {
   nextOverhauls,
   probabilityText,
   ratePercentile,
+  reachesRisk,
   recommend,
   renewalCost,
   spareShortfall,
@@ -202,5 +203,19 @@ describe("horizonEnd", () => {
     ["2028-01-31", 1, "2028-02-29"],
   ])("%s + %d months = %s (Gregorian calendar)", (today, months, end) => {
     expect(horizonEnd(today, months)).toBe(end);
+  });
+});
+
+describe("reachesRisk agrees with exceedProbability", () => {
+  // The quantile comparison must give the same verdict as working out the chance, either side of
+  // the NIST table's ν = 10 point t = 1.812 (upper tail 0.05).
+  test.each([1.7, 1.8, 1.82, 1.9, 0, -1, 3])("at %d standard errors below the limit", (z) => {
+    const limit = 0.5 + z * se12;
+    const e = exceedProbability(fit12, limit, 5000);
+    expect(e.kind).toBe("probability");
+    if (e.kind === "probability") expect(reachesRisk(fit12, limit, 5000, 0.05)).toBe(e.p >= 0.05);
+  });
+  test("not enough data alike", () => {
+    expect(reachesRisk(null, 1, 5000, 0.05)).toBeNull();
   });
 });

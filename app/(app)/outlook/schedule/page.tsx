@@ -36,7 +36,7 @@ export default async function SchedulePage() {
                 { key: "when", header: "Days", rowHeader: true, numeric: true, cell: (s) => `${day(s.startsOn)} – ${day(s.endsOn)}` },
                 { key: "kind", header: "Kind", cell: (s) => (s.kind === "docking" ? "Docking" : "Port stay") },
                 { key: "place", header: "Port or yard", cell: (s) => s.place },
-                ...(canEdit ? [{ key: "x", header: <span className="sr-only">Remove</span>, cell: (s: (typeof mine)[number]) => <DeleteEntryButton vesselId={v.id} entryId={s.id} label={`${s.kind === "docking" ? "docking" : "port stay"} at ${s.place} on ${s.startsOn}`} /> }] : []),
+                ...(canEdit ? [{ key: "x", header: "Remove", cell: (s: (typeof mine)[number]) => <DeleteEntryButton vesselId={v.id} entryId={s.id} label={`${s.kind === "docking" ? "docking" : "port stay"} at ${s.place} on ${s.startsOn}`} /> }] : []),
               ]}
             />
             {mine.length === 0 ? <p className="mt-2 text-sm text-ink-soft">Nothing planned.</p> : null}

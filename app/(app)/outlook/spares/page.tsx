@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { SpareForm, type SpareValues } from "@/components/outlook/spare-form";
 import { Card, PageHeader } from "@/components/ui/card";
+import { ShortfallTable } from "@/components/outlook/shortfall-table";
 import { DataTable } from "@/components/wear/data-table";
 import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
@@ -35,20 +36,7 @@ export default async function SparesPage({ searchParams }: { searchParams: Promi
         planned or recommended in the next {horizonMonths} months (to {day(bundle.until)}).
       </p>
       <h2 className="mb-2 text-lg font-semibold">Shortfall</h2>
-      <DataTable
-        testId="spares-shortfall"
-        caption="Spares short, with order-by dates"
-        dense
-        rows={bundle.shortfall}
-        rowKey={(l) => `${l.profileId}-${l.part}`}
-        columns={[
-          { key: "part", header: "Part", rowHeader: true, cell: (l) => <>{PART_LABELS[l.part]}<span className="block text-xs text-ink-faint">{profileName.get(l.profileId) ?? ""}</span></> },
-          { key: "needed", header: "Needed", align: "right", numeric: true, cell: (l) => l.needed },
-          { key: "available", header: "Stock", align: "right", numeric: true, cell: (l) => l.available },
-          { key: "short", header: "Short", align: "right", numeric: true, cell: (l) => <span className={l.short ? "font-semibold text-limit" : ""}>{l.short}</span> },
-          { key: "orderBy", header: "Order by", numeric: true, cell: (l) => (l.orderBy ? <span className={l.late ? "font-semibold text-limit" : ""}>{day(l.orderBy)}{l.late ? " — late" : ""}</span> : "–") },
-        ]}
-      />
+      <ShortfallTable lines={bundle.shortfall} profileName={profileName} testId="spares-shortfall" />
       <h2 className="mt-8 mb-2 text-lg font-semibold">Stock</h2>
       <div className="space-y-3">
         {bundle.stock.map((s) => (

@@ -61,6 +61,9 @@ export default async function UnitPage({ params }: { params: Promise<{ unitId: s
         {can(user.role, "inspection.create") ? (
           <Link href={`/inspections/new?unit=${ctx.id}`} className={buttonClass("primary", "lg")}>New inspection</Link>
         ) : null}
+        {can(user.role, "import.create") ? (
+          <Link href={`/imports/new?unit=${ctx.id}`} className={buttonClass("secondary", "lg")}>Import a gauge file</Link>
+        ) : null}
       </PageHeader>
 
       {summary.band.reasons.length ? (

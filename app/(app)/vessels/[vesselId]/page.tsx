@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Card, PageHeader } from "@/components/ui/card";
 import { requireRecordInScope } from "@/lib/auth/record-scope";
+import { can } from "@/lib/auth/permissions";
 import { requirePermission } from "@/lib/auth/session";
 import { getVessel } from "@/lib/fleet/queries";
 import { fixed } from "@/lib/format";
@@ -47,9 +48,16 @@ export default async function VesselPage({ params }: { params: Promise<{ vesselI
                   <span className="num">{e.cylinderCount}</span> cylinders · <span className="num">{fixed(e.boreMm, 0)} mm</span> bore ·
                   profile “{e.profileName}”
                 </p>
-                <Link href={`/engines/${e.id}`} className="mt-3 inline-block text-sm font-medium text-signal hover:underline">
-                  Units and wear →
-                </Link>
+                <div className="mt-3 flex flex-wrap gap-x-4">
+                  <Link href={`/engines/${e.id}`} className="inline-flex min-h-11 items-center text-sm font-medium text-signal hover:underline">
+                    Units and wear →
+                  </Link>
+                  {can(user.role, "import.create") ? (
+                    <Link href={`/imports/new?history=1&engine=${e.id}`} className="inline-flex min-h-11 items-center text-sm font-medium text-signal hover:underline">
+                      Import past records →
+                    </Link>
+                  ) : null}
+                </div>
               </Card>
             </li>
           ))}
