@@ -23,6 +23,11 @@ export default defineConfig({
           hookTimeout: 60_000,
         },
       },
+      {
+        // npm run test:cluster only (scripts/test-cluster.sh starts the Galera cluster and two app instances).
+        resolve: { alias },
+        test: { name: "cluster", include: ["tests/cluster/**/*.test.ts"], environment: "node", fileParallelism: false, testTimeout: 120_000, hookTimeout: 120_000 },
+      },
     ],
   },
 });

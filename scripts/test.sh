@@ -33,6 +33,8 @@ runs() { case " $TEST_SUITES " in *" $1 "*) return 0 ;; *) return 1 ;; esac; }
 cleanup() {
   local code=$?
   trap - EXIT INT TERM
+  # Services the fault tests stopped and started again (tests/support/services.ts) go too.
+  if [ -f "$TEST_DATA_DIR/restarted.pids" ]; then mapfile -t -O "${#STARTED_PIDS[@]}" STARTED_PIDS <"$TEST_DATA_DIR/restarted.pids"; fi
   stop_started
   exit "$code"
 }

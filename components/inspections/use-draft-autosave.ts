@@ -3,7 +3,7 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import { ApiError, apiJson, NetworkError } from "@/lib/inspections/api-client";
 import type { ContextProfile } from "@/lib/inspections/context";
-import { fromDraft, sameDraft, toDraft, type FormState } from "@/lib/inspections/form";
+import { fromDraft, randomToken, sameDraft, toDraft, type FormState } from "@/lib/inspections/form";
 import type { InspectionDto } from "@/lib/inspections/schemas";
 
 /** The validator (zod) loads after the sheet, not with it: the first save waits for it, once. */
@@ -14,7 +14,9 @@ const loadSchemas = () => import("@/lib/inspections/schemas");
  * then saved to the server a moment later with the revision the device last had. No
  * network → "offline — kept on this device" and a retry when it returns. Another
  * device saved first → 409 with the server's copy, and the engineer chooses; nothing is
- * overwritten silently in either direction.
+ * overwritten silently in either direction. Each save carries a fresh id, kept on the device
+ * until its answer arrives: when an answer was lost (saved on the server, never heard here),
+ * the 409 that follows names the device's own id, and the device carries on from there.
  */
 
 export type SaveStatus =
@@ -25,7 +27,12 @@ export type SaveStatus =
   | { kind: "conflict"; message: string }
   | { kind: "refused"; message: string; field?: string };
 
-type LocalRecord = { v: 1; baseRevision: number; form: FormState; dirty: boolean; at: string };
+/** `unacked`: ids of saves sent since `baseRevision` whose answer never arrived. */
+type LocalRecord = { v: 1; baseRevision: number; form: FormState; dirty: boolean; at: string; unacked?: string[] };
+
+const EDITABLE_STATES = ["draft", "returned"];
+/** Unanswered save ids kept: far more than the attempts between two answers. */
+const MAX_UNACKED = 50;
 
 const SAVE_DELAY_MS = 1200;
 const RETRY_MS = 10_000;
@@ -66,9 +73,11 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
   const inflight = useRef<Promise<boolean> | null>(null);
   const timer = useRef<number | null>(null);
   const blocked = useRef(false); // true while a conflict waits for the engineer's choice
+  const unacked = useRef<string[]>([]);
 
   const persistLocal = useCallback(
-    (dirty: boolean) => writeLocal(id, { v: 1, baseRevision: revisionRef.current, form: formRef.current, dirty, at: new Date().toISOString() }),
+    (dirty: boolean) =>
+      writeLocal(id, { v: 1, baseRevision: revisionRef.current, form: formRef.current, dirty, at: new Date().toISOString(), unacked: unacked.current }),
     [id],
   );
 
@@ -100,8 +109,28 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
         return false;
       }
       setStatus({ kind: "saving" });
+      /** One PUT; its id is written down before it leaves, so a lost answer can be recognised later. */
+      const put = async () => {
+        const saveId = randomToken(24);
+        unacked.current = [...unacked.current, saveId].slice(-MAX_UNACKED);
+        persistLocal(dirtyRef.current);
+        const res = await apiJson<{ revision: number }>(`/api/inspections/${id}`, { method: "PUT", body: { revision: revisionRef.current, draft: parsed.data, saveId } });
+        unacked.current = [];
+        return res;
+      };
       try {
-        const res = await apiJson<{ revision: number }>(`/api/inspections/${id}`, { method: "PUT", body: { revision: revisionRef.current, draft: parsed.data } });
+        let res: { revision: number };
+        try {
+          res = await put();
+        } catch (err) {
+          const server = err instanceof ApiError && err.status === 409 ? (err.body.details?.server as InspectionDto | undefined) : undefined;
+          if (!server || !EDITABLE_STATES.includes(server.state) || !server.lastSaveId || !unacked.current.includes(server.lastSaveId)) throw err;
+          // The server's newer revision is this device's own save whose answer was lost: carry on from it.
+          revisionRef.current = server.revision;
+          fallbackRef.current = server.draft.header;
+          unacked.current = [];
+          res = await put();
+        }
         revisionRef.current = res.revision;
         fallbackRef.current = parsed.data.header;
         if (seq === editSeq.current) {
@@ -114,7 +143,8 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
         }
         return true;
       } catch (err) {
-        if (err instanceof NetworkError) {
+        if (err instanceof NetworkError || (err instanceof ApiError && [502, 503, 504].includes(err.status))) {
+          // No network, or the server cannot reach its database: kept here, sent again on the next try.
           setStatus({ kind: "offline" });
         } else if (
           err instanceof ApiError &&
@@ -193,6 +223,13 @@ export function useDraftAutosave(initial: InspectionDto, profile: ContextProfile
 
   useEffect(() => {
     const local = readLocal(id);
+    unacked.current = local?.unacked ?? [];
+    // The server's copy is this device's own save whose answer was lost: it is the base now.
+    const ownSave = local !== null && local.baseRevision < initial.revision && !!initial.lastSaveId && unacked.current.includes(initial.lastSaveId);
+    if (ownSave) {
+      local.baseRevision = initial.revision;
+      unacked.current = [];
+    }
     const newerHere = local !== null && local.baseRevision > initial.revision;
     if (local && (local.dirty || newerHere)) {
       formRef.current = local.form;

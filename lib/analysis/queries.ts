@@ -25,14 +25,16 @@ async function readStored(unitId: number): Promise<StoredRow | undefined> {
  * which ids exist).
  */
 export async function getUnitAnalysis(user: CurrentUser, unitId: number) {
-  const ctx = await getUnitContext(user, unitId);
+  // One round trip's wait instead of four: the reads do not depend on each other (the route has
+  // already checked the unit is on the caller's vessels; the context check below still decides).
+  const [ctx, stored, liners, inspections] = await Promise.all([getUnitContext(user, unitId), readStored(unitId), listLiners(unitId), listInspections(unitId)]);
   if (!ctx) return null;
-  let row = await readStored(unitId);
+  let row = stored;
   if (!row?.detail) {
     await db.transaction((trx) => recomputeUnits(trx, { unitIds: [unitId] }));
     row = await readStored(unitId);
   }
-  const [profiles, liners, inspections] = await Promise.all([loadProfiles(db, [ctx.profileId]), listLiners(unitId), listInspections(unitId)]);
+  const profiles = await loadProfiles(db, [ctx.profileId]);
   const profile = profiles.get(ctx.profileId) as ProfileRow;
   const summary = parsed<UnitSummary>(row!.summary);
   const detail = parsed<UnitDetail>(row!.detail);

@@ -3,6 +3,7 @@ import { NextResponse } from "next/server";
 import { ZodError } from "zod";
 import { serverEnv } from "@/lib/env";
 import { HttpError } from "@/lib/http/errors";
+import { RETRY_AFTER_S, unavailableMessage, unavailableService } from "@/lib/http/unavailable";
 import { parseRecordId } from "@/lib/validation/ids";
 import { describeIssues } from "@/lib/validation/issues";
 import { can, type Permission } from "./permissions";
@@ -134,6 +135,12 @@ export function errorResponse(err: unknown): Response {
   if (err instanceof ZodError) {
     const { message, field, fields } = describeIssues(err);
     return NextResponse.json({ error: message, details: { field, fields } }, { status: 400 });
+  }
+  // The database or the object store is down: a clear 503 the device retries, not a 500.
+  const down = unavailableService(err);
+  if (down) {
+    console.error(`${down} unavailable:`, (err as Error)?.message ?? err);
+    return NextResponse.json({ error: unavailableMessage(down), details: { unavailable: down } }, { status: 503, headers: { "retry-after": String(RETRY_AFTER_S) } });
   }
   console.error(err);
   return NextResponse.json({ error: "Something went wrong on the server; nothing was changed." }, { status: 500 });

@@ -41,13 +41,17 @@ async function forwarded(req: Request): Promise<Request> {
   return new Request(req.url, { method: req.method, headers, body, signal: req.signal });
 }
 
-/** The session answer without its token: the cookie is httpOnly so scripts cannot read it, and neither should this. */
+/**
+ * The session answer without its token: the cookie is httpOnly so scripts cannot read it, and neither
+ * should this. Never stored by the browser or a proxy: a stored copy would outlive a sign-out.
+ */
 async function withoutToken(res: Response): Promise<Response> {
   if (!res.ok || !res.headers.get("content-type")?.includes("application/json")) return res;
   const body = (await res.json()) as { session?: Record<string, unknown> } | null;
   if (body?.session) delete body.session.token;
   const headers = new Headers(res.headers);
   headers.delete("content-length");
+  headers.set("cache-control", "no-store");
   return new Response(JSON.stringify(body), { status: res.status, statusText: res.statusText, headers });
 }
 

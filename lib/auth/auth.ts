@@ -76,10 +76,15 @@ export const auth = betterAuth({
   session: {
     expiresIn: serverEnv.SESSION_MAX_AGE_S,
     updateAge: 60 * 60,
+    // A signed copy of the session in a short-lived cookie: better-auth then skips its session and
+    // user queries. A revoked session or a deactivated user is still refused at once by Kalibore's
+    // pages and API, which read the session row, role and ban on every request (lib/auth/session.ts).
+    cookieCache: { enabled: serverEnv.SESSION_COOKIE_CACHE_S > 0, maxAge: serverEnv.SESSION_COOKIE_CACHE_S },
   },
   rateLimit: {
     enabled: true,
-    storage: "memory",
+    // In the database, not in memory: every instance behind a balancer counts against one limit.
+    storage: "database",
     window: serverEnv.AUTH_RATE_LIMIT_WINDOW_S,
     max: 100,
     customRules: {

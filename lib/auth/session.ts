@@ -4,7 +4,7 @@ import { redirect } from "next/navigation";
 import { cache } from "react";
 import { auth } from "./auth";
 import { can, seesAllVessels, type Permission } from "./permissions";
-import { getUserAccessRow, listAssignedVesselIds } from "./queries";
+import { getSessionAccessRow, listAssignedVesselIds } from "./queries";
 import { isRole, type Role } from "./roles";
 
 export type CurrentUser = {
@@ -19,15 +19,18 @@ export type CurrentUser = {
 export const getSession = cache(async () => auth.api.getSession({ headers: await headers() }));
 
 /**
- * The signed-in user, re-read from the database on every request so a changed role
- * or a deactivation takes effect at once, not when the session cookie expires.
+ * The signed-in user, re-read from the database on every request (one query) so a changed role,
+ * a deactivation or a revoked session (signed out elsewhere, password reset) takes effect at once
+ * — not when the session cookie, or better-auth's cached copy of it, expires.
  */
 export const getCurrentUser = cache(async (): Promise<CurrentUser | null> => {
   const session = await getSession();
   if (!session) return null;
-  const row = await getUserAccessRow(session.user.id);
-  if (!row || row.banned || !isRole(row.role)) return null;
-  const vessels = seesAllVessels(row.role) ? "all" : await listAssignedVesselIds(row.id);
+  const row = await getSessionAccessRow(session.user.id, session.session.id);
+  if (!row || !row.sessionLive || row.banned || !isRole(row.role)) return null;
+  // GROUP_CONCAT stops at group_concat_max_len (1024 bytes by default): a list that long is read whole instead.
+  const listed = row.vesselIds ?? "";
+  const vessels = seesAllVessels(row.role) ? "all" : listed.length >= 1000 ? await listAssignedVesselIds(row.id) : listed.split(",").filter(Boolean).map(Number);
   return { id: row.id, name: row.name, email: row.email, role: row.role, vessels };
 });
 

@@ -4,6 +4,7 @@ import { ActionError } from "@/lib/auth/action-error";
 import { writeAudit } from "@/lib/audit/mutations";
 import { db as defaultDb } from "@/lib/db/knex";
 import type { CompanySettingsValues } from "./schemas";
+import { inTransaction } from "@/lib/db/transaction";
 
 type Actor = { id: string; name: string };
 
@@ -53,7 +54,7 @@ export async function listCompanySettings(db: Knex = defaultDb): Promise<Company
 
 /** Saves a company's settings (values already parsed by `companySettingsSchema`), audited. */
 export async function updateCompanySettings(actor: Actor, v: CompanySettingsValues, db: Knex = defaultDb): Promise<CompanySettings> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const before = await getCompanySettings(v.companyId, trx);
     if (!before) throw new ActionError("That company no longer exists.", {}, "not_found");
     const row = { currency_code: v.currencyCode, alert_horizon_days: v.alertHorizonDays, alert_probability: v.alertPercent / 100 };

@@ -17,6 +17,7 @@ import { buildPreview, previewSummary, type DraftTarget, type ImportContext, typ
 import { getImportDto, loadImportContext, type ImportDto, type StoredPreview } from "./queries";
 import type { CommitImportInput, CreateImportInput, CreateUploadInput } from "./schemas";
 import { presignImportDownload } from "./storage";
+import { inTransaction } from "@/lib/db/transaction";
 
 /*
  * Importing in three steps. An upload slot (a pending ledger row and a presigned PUT, as for
@@ -248,7 +249,7 @@ export async function previewImport(actor: Actor, input: CreateImportInput, db: 
   const text = decodeText(file.bytes);
   const p = await plan(db, text, input, input.vesselId);
   const stored = storedPreview(p);
-  const id = await db.transaction(async (trx) => {
+  const id = await inTransaction(db, async (trx) => {
     // A file mapped again: the earlier preview of it by the same person gives way.
     await trx("gauge_imports").where({ file_id: file.id, status: "previewed", created_by: actor.id }).update({ status: "discarded" });
     const [id] = await trx("gauge_imports").insert({
@@ -301,7 +302,7 @@ export async function commitImport(actor: Actor, importId: number, flags: Partia
   if (head.created_by !== actor.id) throw new HttpError(403, "Only the person who previewed this import can import it.");
   const file = await takeFile(actor, head.file_id, head.vessel_id, db);
   const text = decodeText(file.bytes);
-  const recompute = await db.transaction(async (trx) => {
+  const recompute = await inTransaction(db, async (trx) => {
     const row = await trx("gauge_imports").where({ id: importId }).forUpdate().first();
     if (row.status !== "previewed") throw new HttpError(409, "This import changed meanwhile; reload it.");
     const parse = <T>(v: unknown) => (typeof v === "string" ? JSON.parse(v) : v) as T;
@@ -502,7 +503,7 @@ async function writeHistory(trx: Knex.Transaction, actor: Actor, importId: numbe
  * who neither made nor committed the import (the same rule as for one record).
  */
 export async function approveImport(actor: Actor, importId: number, db: Knex = defaultDb): Promise<ImportDto> {
-  const units = await db.transaction(async (trx) => {
+  const units = await inTransaction(db, async (trx) => {
     const row = await trx("gauge_imports").where({ id: importId }).forUpdate().first("id", "status", "destination", "created_by", "committed_by", "vessel_id");
     if (!row) throw new HttpError(404, "No such import.");
     if (row.status === "approved") return null;

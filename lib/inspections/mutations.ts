@@ -219,8 +219,17 @@ export type SavedDraft = { id: number; revision: number; state: InspectionState 
  * Saves a whole draft in one transaction. The caller sends the `revision` it last had;
  * if another device saved in between, the answer is 409 with the server's copy, and
  * nothing is overwritten. Refuses a station, direction or ring the profile lacks.
+ * `saveId` is kept with the new revision (and shown in the 409 copy), so a device whose
+ * answer was lost can tell its own earlier save from someone else's.
  */
-export async function saveDraft(actor: Actor, id: number, revision: number, draft: InspectionDraft, db: Knex = defaultDb): Promise<SavedDraft> {
+export async function saveDraft(
+  actor: Actor,
+  id: number,
+  revision: number,
+  draft: InspectionDraft,
+  db: Knex = defaultDb,
+  options: { saveId?: string } = {},
+): Promise<SavedDraft> {
   return inTransaction(db, async (trx) => {
     const row = await getInspectionRow(trx, id, true);
     if (!row) throw new RecordError(404, "Inspection not found.");
@@ -237,7 +246,7 @@ export async function saveDraft(actor: Actor, id: number, revision: number, draf
     const updated = await trx("inspections")
       .where({ id, revision })
       .whereIn("state", EDITABLE)
-      .update({ ...headerColumns(draft.header), revision: revision + 1 });
+      .update({ ...headerColumns(draft.header), revision: revision + 1, last_save_id: options.saveId ?? null });
     if (updated !== 1) await conflict(trx, id, "This draft changed while saving. Nothing was overwritten: compare and choose.");
     await writeDraftRows(trx, id, ctx, draft);
     void actor; // drafts are saved every few seconds; the audit trail records the workflow steps, not each keystroke batch

@@ -162,6 +162,11 @@ const revisionField = z
 export const saveDraftSchema = z.object({
   revision: revisionField,
   draft: inspectionDraftSchema,
+  /**
+   * A fresh id per save attempt, from the device. The server keeps the last accepted one, so
+   * a device whose answer was lost recognises its own save in the 409 that follows.
+   */
+  saveId: z.string().regex(/^[A-Za-z0-9_-]{16,64}$/, "The save id is malformed.").optional(),
 });
 export type SaveDraftInput = z.infer<typeof saveDraftSchema>;
 
@@ -248,6 +253,8 @@ export type InspectionDto = {
   state: InspectionState;
   version: number;
   revision: number;
+  /** The device's id of the save that made this revision (null when not saved from the sheet). */
+  lastSaveId: string | null;
   supersedesId: number | null;
   supersededById: number | null;
   amendmentReason: string | null;

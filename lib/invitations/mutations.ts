@@ -182,7 +182,7 @@ export async function recordReissueRequest(
   recipients: { id: string; name: string; email: string }[],
   db: Knex = defaultDb,
 ): Promise<void> {
-  await db.transaction(async (trx) => {
+  await inTransaction(db, async (trx) => {
     for (const to of recipients) {
       await queueReissueRequestMail(trx, { to, inviteeName: invitation.name, inviteeEmail: invitation.email, reason: invitation.status });
     }

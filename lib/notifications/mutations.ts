@@ -4,6 +4,7 @@ import { writeAudit } from "@/lib/audit/mutations";
 import type { Role } from "@/lib/auth/roles";
 import { db as defaultDb } from "@/lib/db/knex";
 import { topicsFor, type Topic } from "./topics";
+import { inTransaction } from "@/lib/db/transaction";
 
 /**
  * Saves which e-mails a person gets: every topic that concerns their role is stored on or off
@@ -13,7 +14,7 @@ import { topicsFor, type Topic } from "./topics";
 export async function savePreferences(user: { id: string; name: string; role: Role }, enabled: Topic[], db: Knex = defaultDb): Promise<Topic[]> {
   const topics = topicsFor(user.role);
   const on = topics.filter((t) => enabled.includes(t));
-  await db.transaction(async (trx) => {
+  await inTransaction(db, async (trx) => {
     const rows = topics.map((topic) => ({ user_id: user.id, topic, enabled: on.includes(topic), updated_at: new Date() }));
     if (rows.length) await trx("notification_preferences").insert(rows).onConflict(["user_id", "topic"]).merge(["enabled", "updated_at"]);
     await writeAudit({ actor: user, action: "notifications.preferences", entityType: "user", entityId: user.id, detail: { on } }, trx);

@@ -5,6 +5,7 @@ import { canSeeVessel, type VesselScope } from "@/lib/auth/scope";
 import { db as defaultDb } from "@/lib/db/knex";
 import { HttpError } from "@/lib/http/errors";
 import type { PlanCreateInput, PlanUpdateInput, ScheduleEntryInput, SpareInput } from "./schemas";
+import { inTransaction } from "@/lib/db/transaction";
 
 /*
  * Changes to the ships' schedules, the renewal plans and the spares. Each runs in one
@@ -23,7 +24,7 @@ const conflict = (message: string, details?: Record<string, unknown>) => new Htt
 
 /** Adds a port stay or docking to a vessel's schedule; returns its id. */
 export async function createScheduleEntry(actor: Actor, vesselId: number, input: ScheduleEntryInput, db: Knex = defaultDb): Promise<number> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const [id] = await trx("vessel_schedule").insert({
       vessel_id: vesselId,
       kind: input.kind,
@@ -46,7 +47,7 @@ async function scheduleRow(trx: Knex.Transaction, vesselId: number, entryId: num
 
 /** Changes a schedule entry at the revision the person saw. */
 export async function updateScheduleEntry(actor: Actor, vesselId: number, entryId: number, input: ScheduleEntryInput & { revision: number }, db: Knex = defaultDb): Promise<{ revision: number }> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await scheduleRow(trx, vesselId, entryId);
     if (row.revision !== input.revision) throw conflict("Someone changed this port stay or docking meanwhile; reload to see their change.", { revision: row.revision });
     await trx("vessel_schedule")
@@ -62,7 +63,7 @@ export async function updateScheduleEntry(actor: Actor, vesselId: number, entryI
 
 /** Removes a schedule entry; plans that named it keep their day and the place in words. */
 export async function deleteScheduleEntry(actor: Actor, vesselId: number, entryId: number, db: Knex = defaultDb): Promise<void> {
-  await db.transaction(async (trx) => {
+  await inTransaction(db, async (trx) => {
     const row = await scheduleRow(trx, vesselId, entryId);
     await trx("renewal_plans").where({ schedule_id: entryId }).whereNull("port_or_yard").update({ port_or_yard: row.place });
     await trx("vessel_schedule").where({ id: entryId }).delete();
@@ -106,7 +107,7 @@ async function checkPlanRefs(trx: Knex.Transaction, unit: { vesselId: number; pr
  */
 export async function createPlan(actor: Actor, unitId: number, input: PlanCreateInput, db: Knex = defaultDb): Promise<{ id: number; revision: number }> {
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       const unit = await unitForPlan(trx, unitId);
       const place = await checkPlanRefs(trx, unit, input.part, input.scheduleId, input.spareId);
       const [id] = await trx("renewal_plans").insert({
@@ -142,7 +143,7 @@ const ALLOWED_MOVES: Record<string, string[]> = { pencilled: ["confirmed", "drop
  */
 export async function updatePlan(actor: Actor, unitId: number, planId: number, input: PlanUpdateInput, db: Knex = defaultDb): Promise<{ revision: number; state: string }> {
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       const row = await trx("renewal_plans").where({ id: planId, unit_id: unitId }).forUpdate().first();
       if (!row) throw new HttpError(404, "No such plan on this unit.");
       if (row.revision !== input.revision) throw conflict("Someone changed this plan meanwhile; reload to see their change.", { revision: row.revision, state: row.status });
@@ -230,7 +231,7 @@ const spareRow = (input: SpareInput) => ({
 /** Adds a stock line (a part of a profile on a ship, or in the company store). One line per place: a second is 409. */
 export async function createSpare(actor: Actor, scope: VesselScope, input: SpareInput, db: Knex = defaultDb): Promise<number> {
   try {
-    return await db.transaction(async (trx) => {
+    return await inTransaction(db, async (trx) => {
       const companyId = await companyFor(trx, scope, input.vesselId);
       if (!(await trx("engine_profiles").where({ id: input.profileId }).first("id"))) throw fieldError("profileId", "Unknown engine profile.");
       // The unique key cannot see two store lines (a NULL vessel is never equal), so look first.
@@ -248,7 +249,7 @@ export async function createSpare(actor: Actor, scope: VesselScope, input: Spare
 
 /** Changes a stock line at the revision the person saw. 404 for a line on a vessel outside the person's scope. */
 export async function updateSpare(actor: Actor, scope: VesselScope, spareId: number, input: SpareInput & { revision: number }, db: Knex = defaultDb): Promise<{ revision: number }> {
-  return db.transaction(async (trx) => {
+  return inTransaction(db, async (trx) => {
     const row = await trx("spares_stock").where({ id: spareId }).forUpdate().first();
     if (!row || (row.vessel_id !== null && !canSeeVessel(scope, row.vessel_id))) throw new HttpError(404, "No such stock line on your vessels.");
     if (row.revision !== input.revision) throw conflict("Someone changed this stock line meanwhile; reload to see their change.", { revision: row.revision });

@@ -14,6 +14,7 @@ export type WorldUserKey = keyof RoleWorld["users"];
 /** One request as the fuzzer builds it: route params, query string, and a JSON body or raw bytes. */
 export type FuzzInput = {
   params?: Record<string, string | string[]>;
+  headers?: Record<string, string>;
   query?: string;
   /** Sent as JSON. Absent: no body. */
   body?: unknown;
@@ -43,6 +44,8 @@ export type FuzzCase<F = unknown> = {
   /** Bodies shaped like real ones with hostile values in their fields (the fuzzer adds random JSON and non-JSON). */
   body?: (fx: F) => fc.Arbitrary<unknown>;
   query?: (fx: F) => fc.Arbitrary<string>;
+  /** Extra request headers (a bearer token, say). */
+  headers?: (fx: F) => fc.Arbitrary<Record<string, string>>;
   /** Filled in just before the request (e.g. the record's current revision), so inputs reach past the lock. */
   prepare?: (fx: F, input: FuzzInput) => Promise<FuzzInput>;
   /** Tables a refused request may still write (e.g. failed sign-ins are counted). */

@@ -47,3 +47,19 @@ describe("the session-signing secret", () => {
     expect(() => parseServerEnv({ NODE_ENV: "production", BETTER_AUTH_SECRET: dev })).toThrow(/published example value/);
   });
 });
+
+describe("published local credentials", () => {
+  const secret = "q7Vt2mZ0xJ4rL9sK1bN8cH3wY6pD5fGe-aTuEiOo";
+  const prod = (extra: Record<string, string>) => parseServerEnv({ NODE_ENV: "production", BETTER_AUTH_SECRET: secret, ...extra });
+
+  it("are accepted for the private database and the fake store on loopback (npm start)", () => {
+    expect(prod({}).DB_PASSWORD).toBe("kalibore-local");
+    expect(prod({ DB_HOST: "localhost", S3_ENDPOINT: "http://127.0.0.1:4569" }).S3_ACCESS_KEY_ID).toBe("S3RVER");
+  });
+
+  it("are refused in production for a database or an object store elsewhere", () => {
+    expect(() => prod({ DB_HOST: "db.internal.example" })).toThrow(/DB_PASSWORD: is the published local default/);
+    expect(() => prod({ S3_ENDPOINT: "https://s3.eu-west-1.amazonaws.com" })).toThrow(/S3_SECRET_ACCESS_KEY: is the local fake's published key/);
+    expect(prod({ DB_HOST: "db.internal.example", DB_PASSWORD: "a-real-one" }).DB_HOST).toBe("db.internal.example");
+  });
+});

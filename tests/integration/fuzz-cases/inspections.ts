@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { db } from "@/lib/db/knex";
 import { randomToken } from "@/lib/inspections/form";
-import { discardDraft } from "@/lib/inspections/mutations";
+import { discardDraft, submitInspection } from "@/lib/inspections/mutations";
 import type { InspectionDraft } from "@/lib/inspections/schemas";
 import { fuzzCase, hostileString, mutatedFrom, type EchoField, type FuzzCase, type FuzzInput } from "../../support/fuzz";
 import { approvedOn, clearOpenDrafts, daysAgo, draftOn, makeImage, photoOn, readyUnit, submittedOn, uploadToSlot } from "../../support/inspection-builders";
@@ -68,7 +68,7 @@ const inspectionParam = (id: number, fx: Fx, extra: Record<string, string> = {})
 
 const revisionOf = async (id: number) => ((await db("inspections").where({ id }).first("revision"))?.revision as number) ?? 1;
 
-/** Bodies carry "CURRENT" where the record's revision goes and "CLIENT_TOKEN" for a fresh token. */
+/** Bodies carry "CURRENT" where the record's revision goes and "CLIENT_TOKEN" for a fresh token (or save id). */
 function fillIn(id: () => number) {
   return async (_fx: Fx, input: FuzzInput): Promise<FuzzInput> => {
     const b = input.body as Record<string, unknown> | undefined;
@@ -76,6 +76,7 @@ function fillIn(id: () => number) {
     const out = { ...b };
     if (out.revision === "CURRENT") out.revision = await revisionOf(id());
     if (out.clientToken === "CLIENT_TOKEN") out.clientToken = randomToken(24);
+    if (out.saveId === "CLIENT_TOKEN") out.saveId = randomToken(24);
     return { ...input, body: out };
   };
 }
@@ -118,7 +119,7 @@ export const fuzzCases: Record<string, FuzzCase<Fx>> = {
     as: "engineer",
     setup,
     params: (fx) => inspectionParam(fx.draft.id, fx),
-    body: (fx) => mutatedFrom({ revision: "CURRENT", draft: fx.draft.draft }),
+    body: (fx) => mutatedFrom({ revision: "CURRENT", draft: fx.draft.draft, saveId: "CLIENT_TOKEN" }),
     prepare: (fx, input) => fillIn(() => fx.draft.id)(fx, input),
     echo: [
       draftText("header.crew", (d, t) => (d.header.crew = t), (d) => d.header.crew),
@@ -152,7 +153,12 @@ export const fuzzCases: Record<string, FuzzCase<Fx>> = {
     echo: [
       {
         field: "comment",
-        send: async (fx, text) => ({ params: { inspectionId: String((await submittedOn(fx.units[5], fx.engineer)).id) }, body: { comment: text } }),
+        send: async (fx, text) => {
+          // The record the last string returned is submitted again (cheaper than a new one).
+          const row = await db("inspections").where({ id: fx.toReturn }).first("state");
+          if (row.state === "returned") await submitInspection(fx.engineer, fx.toReturn, undefined);
+          return { params: { inspectionId: String(fx.toReturn) }, body: { comment: text } };
+        },
         readBack: async (_fx, call, sent) =>
           ((await call("GET /api/inspections/[inspectionId]", { params: { inspectionId: String((sent.json as { id: number }).id) } })).json as { returnComment: string }).returnComment,
       },

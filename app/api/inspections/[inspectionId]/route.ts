@@ -24,8 +24,8 @@ export const GET = withRoute<P>(
 export const PUT = withRoute<P>(
   "PUT /api/inspections/[inspectionId]",
   async (req, { user, params }) => {
-    const { revision, draft } = await readBody(req, saveDraftSchema, { fieldPrefix: "draft." });
-    const saved = await saveDraft(user, inspectionIdOf(params), revision, draft);
+    const { revision, draft, saveId } = await readBody(req, saveDraftSchema, { fieldPrefix: "draft." });
+    const saved = await saveDraft(user, inspectionIdOf(params), revision, draft, undefined, { saveId });
     return NextResponse.json(saved);
   },
   { vesselOf: vesselOfInspection },
