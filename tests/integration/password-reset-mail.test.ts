@@ -63,14 +63,14 @@ describe("password-reset mail", () => {
       release();
       await outboxIdle();
     }
-    const row = await db("mail_outbox").where({ to_address: known, kind: "password_reset" }).first();
+    const row = await db("mail_outbox").where({ to_address: known, kind: "password_reset" }).orderBy("id", "desc").first();
     expect(row).toMatchObject({ kind: "password_reset", status: "pending", attempts: 1, last_error: "mail server did not answer" });
   });
 
   it("delivers the queued mail to the mail server when it answers again, with a working link", async () => {
     // The retry is due 30 s after the failure; the sender is asked as if that time had come.
     await drainOutbox({ now: () => new Date(Date.now() + 60_000) });
-    const row = await db("mail_outbox").where({ to_address: known, kind: "password_reset" }).first();
+    const row = await db("mail_outbox").where({ to_address: known, kind: "password_reset" }).orderBy("id", "desc").first();
     expect(row).toMatchObject({ status: "sent", attempts: 2, last_error: null });
     const raw = await mailTo(known);
     expect(raw, `no mail to ${known} in ${MAIL_DIR}`).not.toBeNull();
