@@ -45,7 +45,14 @@ export function DataTable<T>({
 }) {
   const pad = dense ? "px-2 py-2 sm:px-3" : "px-3 py-2";
   return (
-    <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised" data-testid={testId}>
+    // Focusable and named, so a table wider than a phone can be scrolled from the keyboard too.
+    <div
+      className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised focus-visible:outline-2 focus-visible:outline-signal"
+      data-testid={testId}
+      tabIndex={0}
+      role="region"
+      aria-label={typeof caption === "string" ? caption : "Table"}
+    >
       <table className={cn("w-full text-sm", minWidthClass)}>
         {caption ? <caption className="sr-only">{caption}</caption> : null}
         <thead className="bg-paper-sunk text-left text-xs tracking-wide text-ink-soft uppercase">
