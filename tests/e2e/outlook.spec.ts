@@ -25,8 +25,8 @@ test.describe("[SUPERINTENDENT][CHIEF][OUTLOOK] renewal planning", () => {
     await signIn(page, DEMO.superintendent);
     await page.goto("/outlook");
     await expect(page.getByRole("heading", { name: "Renewal outlook" })).toBeVisible();
-    await page.getByLabel("Vessel").selectOption({ label: SHIP });
-    await page.getByLabel("Due within").selectOption({ label: "12 months" });
+    await page.getByLabel("Vessel", { exact: true }).selectOption({ label: SHIP });
+    await page.getByLabel("Due within", { exact: true }).selectOption({ label: "12 months" });
     await page.getByRole("button", { name: "Show" }).click();
     await expect(page).toHaveURL(/vessel=\d+/);
     await expect(page).toHaveURL(/horizon=12/);
@@ -63,7 +63,7 @@ test.describe("[SUPERINTENDENT][CHIEF][OUTLOOK] renewal planning", () => {
     const portStay = (await when.locator("option").allInnerTexts()).find((t) => t.startsWith("Port stay"));
     expect(portStay, "a port stay to plan into").toBeTruthy();
     await when.selectOption({ label: portStay! });
-    await form.getByLabel("Part").selectOption("liner");
+    await form.getByLabel("Part", { exact: true }).selectOption("liner");
     await form.getByRole("button", { name: "Save plan" }).click();
     const planned = page.locator(`[data-unit="${unitId}"]`);
     await expect(planned.getByTestId("plan-state")).toContainText("Pencilled in liner");
